@@ -1,0 +1,99 @@
+// gradeline public API: the network model.
+//
+// Everything in the model is SI: lengths and heads in m, flows in m^3/s, densities in kg/m^3,
+// kinematic viscosity in m^2/s. Units are converted only when a file is read or a report is
+// written. Node and link references are indices into Network::nodes / Network::pipes.
+#pragma once
+
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <unordered_map>
+#include <vector>
+
+namespace gradeline {
+
+enum class UnitSystem { kSI, kUS };
+
+enum class NodeKind { kJunction, kReservoir };
+
+struct Point {
+  double x = 0.0;
+  double y = 0.0;
+};
+
+// Where an element was defined, for diagnostics after parsing.
+struct SourceLocation {
+  std::string file;
+  int line = 0;
+};
+
+struct Node {
+  std::string id;
+  NodeKind kind = NodeKind::kJunction;
+  double elevation_m = 0.0;  // ground / pipe invert reference for pressure
+  double demand_m3s = 0.0;   // base demand, positive out of the network
+  double head_m = 0.0;       // fixed hydraulic grade line, reservoirs only
+  std::optional<Point> at;
+  SourceLocation where;
+
+  bool is_fixed_head() const { return kind == NodeKind::kReservoir; }
+};
+
+enum class LinkStatus { kOpen, kClosed };
+
+struct Pipe {
+  std::string id;
+  std::size_t from = 0;  // index into Network::nodes
+  std::size_t to = 0;
+  double length_m = 0.0;
+  double diameter_m = 0.0;
+  std::optional<double> roughness_m;  // absolute roughness, Darcy-Weisbach
+  std::optional<double> cfactor;      // Hazen-Williams C (dimensionless)
+  double minor_k = 0.0;               // sum of minor-loss coefficients
+  LinkStatus status = LinkStatus::kOpen;
+  bool check_valve = false;  // flow only from `from` to `to`
+  SourceLocation where;
+};
+
+enum class HeadlossLaw { kDarcyWeisbach, kHazenWilliams };
+
+// Hazen-Williams in SI form: h = coefficient * L * Q^flow_exponent / (C^flow_exponent *
+// D^diameter_exponent), h and L in m, Q in m^3/s, D in m.
+struct HeadlossModel {
+  HeadlossLaw law = HeadlossLaw::kDarcyWeisbach;
+  double hw_coefficient = 10.67;
+  double hw_flow_exponent = 1.852;
+  double hw_diameter_exponent = 4.87;
+};
+
+struct Fluid {
+  double density_kgm3 = 999.1;            // water at 15 C
+  double kinematic_viscosity_m2s = 1.138e-6;
+  std::optional<double> temperature_c;    // set when given by temperature
+};
+
+struct Network {
+  std::string title;
+  UnitSystem units = UnitSystem::kSI;
+  HeadlossModel headloss;
+  Fluid fluid;
+  std::vector<Node> nodes;
+  std::vector<Pipe> pipes;
+
+  std::optional<std::size_t> find_node(const std::string& id) const;
+  std::optional<std::size_t> find_pipe(const std::string& id) const;
+  // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
+  void reindex();
+  std::size_t add_node(Node node);
+  std::size_t add_pipe(Pipe pipe);
+
+ private:
+  std::unordered_map<std::string, std::size_t> node_index_;
+  std::unordered_map<std::string, std::size_t> pipe_index_;
+};
+
+// Standard gravity (CGPM 1901), m/s^2.
+inline constexpr double kGravity_ms2 = 9.80665;
+
+}  // namespace gradeline

@@ -1,0 +1,23 @@
+// gradeline public API: options of a steady-state solve.
+#pragma once
+
+#include <string>
+
+namespace gradeline {
+
+struct SolveOptions {
+  int max_iterations = 50;
+  // Convergence is judged on the residuals themselves: every link's energy residual
+  // |h(Q) - (H_from - H_to)| and every node's continuity residual |inflow - outflow - demand|.
+  double energy_tolerance_m = 1e-8;
+  double continuity_tolerance_m3s = 1e-9;
+  // Newton steps that raise the residual are halved, at most this many times per iteration.
+  int max_step_halvings = 8;
+  // Hazen-Williams regularisation: below this flow the |Q|^n law is smoothed (see link_law.h).
+  double hw_regularisation_flow_m3s = 1e-8;
+
+  // Returns an empty string when the options are usable, or the reason they are not.
+  std::string validate() const;
+};
+
+}  // namespace gradeline

@@ -1,0 +1,75 @@
+// gradeline public API: what a solve returns. A summary says why the solve stopped, how far it
+// got and what the residuals are; the result carries the state of every node and link.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+namespace gradeline {
+
+enum class Termination {
+  kConverged,          // residuals below tolerance, link statuses settled
+  kMaxIterations,      // iteration limit reached first
+  kLinearSolverFailed, // the Schur complement was not positive definite
+  kNonFinite,          // NaN or infinity appeared in the state
+  kInvalidOptions,
+};
+
+const char* termination_name(Termination t);
+
+enum class FlowRegime { kNone, kLaminar, kTransitional, kTurbulent };
+
+const char* regime_name(FlowRegime r);
+
+struct NodeState {
+  double head_m = 0.0;        // NaN when unsupplied
+  double pressure_m = 0.0;    // head - elevation, NaN when unsupplied
+  double pressure_pa = 0.0;   // density * g * pressure head
+  double demand_m3s = 0.0;    // demand of this solve
+  double continuity_residual_m3s = 0.0;
+  bool supplied = true;
+};
+
+struct LinkState {
+  double flow_m3s = 0.0;      // positive from `from` to `to`
+  double velocity_ms = 0.0;
+  double headloss_m = 0.0;    // h(Q), signed like the flow
+  double reynolds = 0.0;
+  double friction_factor = 0.0;  // Darcy f; 0 where not defined
+  double energy_residual_m = 0.0;
+  FlowRegime regime = FlowRegime::kNone;
+  bool open = true;           // false: closed by the file, by a check valve, or unsupplied
+  bool closed_by_check_valve = false;
+};
+
+struct SolveTiming {
+  double topology_s = 0.0;
+  double symbolic_s = 0.0;
+  double numeric_factor_s = 0.0;  // summed over iterations
+  double triangular_solve_s = 0.0;
+  double assembly_s = 0.0;        // friction evaluation and matrix assembly, summed
+  double total_s = 0.0;
+};
+
+struct SolveSummary {
+  Termination termination = Termination::kMaxIterations;
+  int iterations = 0;
+  double max_continuity_residual_m3s = 0.0;
+  double max_energy_residual_m = 0.0;
+  std::size_t worst_continuity_node = 0;
+  std::size_t worst_energy_link = 0;
+  std::size_t unsupplied_nodes = 0;
+  std::string message;  // human detail for a failure
+  SolveTiming timing;
+
+  bool converged() const { return termination == Termination::kConverged; }
+};
+
+struct SolveResult {
+  SolveSummary summary;
+  std::vector<NodeState> nodes;
+  std::vector<LinkState> links;
+};
+
+}  // namespace gradeline

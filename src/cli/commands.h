@@ -1,0 +1,46 @@
+// The subcommands of the gradeline command line, registered from one table.
+#pragma once
+
+#include <CLI/CLI.hpp>
+#include <functional>
+#include <iosfwd>
+#include <string>
+#include <vector>
+
+#include "io/parser.h"
+
+namespace gradeline {
+
+enum ExitCode : int {
+  kExitOk = 0,         // solved (and every stated criterion met)
+  kExitCriteria = 1,   // solved, but a stated criterion is violated
+  kExitInput = 2,      // input error: bad file, bad option, unwritable output
+  kExitNotSolved = 3,  // no valid solution
+};
+
+struct Streams {
+  std::ostream& out;
+  std::ostream& err;
+};
+
+// A command adds its options to `app` and returns the function that runs it after parsing.
+using Runner = std::function<int(Streams)>;
+struct CommandSpec {
+  const char* name;
+  const char* summary;
+  std::function<Runner(CLI::App*)> attach;
+};
+
+const std::vector<CommandSpec>& command_table();
+
+CommandSpec check_command();
+CommandSpec solve_command();
+
+// Shared by the commands: parses a network file and prints its errors. False on any error.
+bool load_network(const std::string& path, Streams io, Network* network);
+
+// Writes `text` to `path` atomically unless `path` names one of `inputs`. Prints the error.
+bool write_output(const std::string& path, const std::string& text,
+                  const std::vector<std::string>& inputs, Streams io);
+
+}  // namespace gradeline

@@ -1,0 +1,52 @@
+// Head-loss laws of a pipe: h(Q) and its exact derivative dh/dQ, with Q in m^3/s and h in m.
+// h has the sign of Q (a loss in the direction of flow) and dh/dQ > 0 for every Q, which keeps
+// the global-gradient matrix positive definite.
+//
+// Darcy-Weisbach (SI):   h = (f(Re) L/D + K) * V|V| / (2 g),   V = Q / A,  Re = |V| D / nu.
+//   In laminar flow the friction part is evaluated as the Hagen-Poiseuille law
+//   h_f = 32 nu L V / (g D^2), which is linear and finite at Q = 0.
+//   dh/dQ = (f L/D + K) |Q| / (g A^2) + (df/dRe) Re L/D |Q| / (2 g A^2).
+// Hazen-Williams (SI):   h = k L |Q|^(n-1) Q / (C^n D^m) + K V|V| / (2 g),
+//   with k, n, m from HeadlossModel (defaults 10.67, 1.852, 4.87). Because dh/dQ -> 0 as Q -> 0
+//   for n > 1, |Q|^(n-1) is replaced by (Q^2 + q0^2)^((n-1)/2), q0 = 1e-8 m^3/s by default.
+//   The relative change in h is below 1e-10 for |Q| >= 1e-3 L/s, and dh/dQ(0) = k L q0^(n-1) /
+//   (C^n D^m) > 0.
+// Minor losses K V^2 / (2 g) are added under both laws.
+#pragma once
+
+#include "gradeline/network.h"
+#include "gradeline/solve_summary.h"
+
+namespace gradeline {
+
+// Coefficients of one pipe's law, computed once per solve so the Newton loop does no division
+// by geometry.
+struct PipeLaw {
+  HeadlossLaw law = HeadlossLaw::kDarcyWeisbach;
+  double length_m = 0.0;
+  double diameter_m = 0.0;
+  double area_m2 = 0.0;
+  double relative_roughness = 0.0;   // e/D
+  double reynolds_per_flow = 0.0;    // Re = |Q| * this, s/m^3
+  double turbulent_coef = 0.0;       // L / (2 g D A^2): h_f = f * this * Q^2, s^2/m^5
+  double laminar_coef = 0.0;         // 32 nu L / (g D^2 A): h_f = this * Q, s/m^2
+  double minor_coef = 0.0;           // K / (2 g A^2), s^2/m^5
+  double hw_coef = 0.0;              // k L / (C^n D^m)
+  double hw_exponent = 1.852;
+  double hw_q0_m3s = 1e-8;
+};
+
+PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid& fluid,
+                      double hw_regularisation_flow_m3s);
+
+struct LinkEval {
+  double headloss_m = 0.0;
+  double dh_dq = 0.0;   // s/m^2
+  double reynolds = 0.0;
+  double friction_factor = 0.0;  // Darcy f (equivalent f under Hazen-Williams)
+  FlowRegime regime = FlowRegime::kNone;
+};
+
+LinkEval evaluate_pipe(const PipeLaw& law, double flow_m3s);
+
+}  // namespace gradeline

@@ -1,0 +1,38 @@
+// Splits one line of a gradeline text file into a statement:
+//   KEYWORD POSITIONAL... KEY=VALUE...
+// '#' starts a comment; spaces and tabs separate fields; a trailing '\r' (CRLF files) is
+// dropped. Positional fields come before the key=value pairs.
+#pragma once
+
+#include <string>
+#include <string_view>
+#include <utility>
+#include <vector>
+
+namespace gradeline {
+
+inline constexpr std::size_t kMaxLineLength = 4096;
+inline constexpr std::size_t kMaxIdLength = 64;
+
+struct Statement {
+  int line = 0;
+  std::string keyword;
+  std::vector<std::string> positional;
+  std::vector<std::pair<std::string, std::string>> options;  // key, value in file order
+  std::string rest;  // the raw text after the keyword, comment removed (for `title`)
+};
+
+struct LexResult {
+  bool empty = true;   // blank or comment-only line
+  std::string error;   // set when the line cannot be split
+};
+
+LexResult lex_line(std::string_view line, int line_number, Statement* out);
+
+// Splits a whole text into lines, dropping a UTF-8 byte-order mark at the start.
+std::vector<std::string_view> split_lines(std::string_view text);
+
+// An ID is 1 to 64 bytes with no space, control character, '#', '=' or ','.
+bool is_valid_id(std::string_view id);
+
+}  // namespace gradeline

@@ -1,0 +1,66 @@
+#include "io/network_writer.h"
+
+#include <charconv>
+#include <sstream>
+
+namespace gradeline {
+
+std::string exact_number(double value) {
+  char buffer[64];
+  auto [end, ec] = std::to_chars(buffer, buffer + sizeof buffer, value);
+  return std::string(buffer, end);
+}
+
+namespace {
+
+std::string with_unit(double value, const char* unit) { return exact_number(value) + unit; }
+
+void write_at(std::ostringstream& out, const Node& n) {
+  if (n.at) out << " at=" << exact_number(n.at->x) << "," << exact_number(n.at->y);
+}
+
+}  // namespace
+
+std::string write_network(const Network& net) {
+  std::ostringstream out;
+  out << "# gradeline network, format version 1 (values in SI units)\n";
+  if (!net.title.empty()) out << "title " << net.title << "\n";
+  out << "units " << (net.units == UnitSystem::kSI ? "SI" : "US") << "\n";
+  if (net.headloss.law == HeadlossLaw::kDarcyWeisbach) {
+    out << "headloss darcy-weisbach\n";
+  } else {
+    out << "headloss hazen-williams coefficient=" << exact_number(net.headloss.hw_coefficient)
+        << " flow_exponent=" << exact_number(net.headloss.hw_flow_exponent)
+        << " diameter_exponent=" << exact_number(net.headloss.hw_diameter_exponent) << "\n";
+  }
+  if (net.fluid.temperature_c) {
+    out << "fluid water temperature=" << with_unit(*net.fluid.temperature_c, "C") << "\n";
+  } else {
+    out << "fluid viscosity=" << with_unit(net.fluid.kinematic_viscosity_m2s, "m2/s")
+        << " density=" << with_unit(net.fluid.density_kgm3, "kg/m3") << "\n";
+  }
+  for (const Node& n : net.nodes) {
+    if (n.is_fixed_head()) {
+      out << "reservoir " << n.id << " head=" << with_unit(n.head_m, "m")
+          << " elevation=" << with_unit(n.elevation_m, "m");
+    } else {
+      out << "node " << n.id << " elevation=" << with_unit(n.elevation_m, "m");
+      if (n.demand_m3s != 0.0) out << " demand=" << with_unit(n.demand_m3s, "m3/s");
+    }
+    write_at(out, n);
+    out << "\n";
+  }
+  for (const Pipe& p : net.pipes) {
+    out << "pipe " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id
+        << " length=" << with_unit(p.length_m, "m") << " diameter=" << with_unit(p.diameter_m, "m");
+    if (p.roughness_m) out << " roughness=" << with_unit(*p.roughness_m, "m");
+    if (p.cfactor) out << " cfactor=" << exact_number(*p.cfactor);
+    if (p.minor_k != 0.0) out << " minor=" << exact_number(p.minor_k);
+    if (p.status == LinkStatus::kClosed) out << " status=closed";
+    if (p.check_valve) out << " check=yes";
+    out << "\n";
+  }
+  return out.str();
+}
+
+}  // namespace gradeline

@@ -1,0 +1,32 @@
+// Reads the gradeline network format (version 1; see docs/format.md) into a Network.
+// Every error found is reported as "FILE:LINE: error: message", up to a limit.
+#pragma once
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "gradeline/network.h"
+#include "io/diagnostics.h"
+
+namespace gradeline {
+
+inline constexpr int kMaxIncludeDepth = 16;
+
+struct ParseResult {
+  Network network;
+  std::vector<Diagnostic> errors;
+  bool truncated = false;  // the error limit was reached; later errors were not looked for
+
+  bool ok() const { return errors.empty(); }
+};
+
+ParseResult parse_network_file(const std::string& path);
+
+// `file_name` is used in messages and as the base of relative includes.
+ParseResult parse_network_text(std::string_view text, const std::string& file_name);
+
+// Reads a whole file; false with a reason when it cannot be read.
+bool read_text_file(const std::string& path, std::string* text, std::string* error);
+
+}  // namespace gradeline

@@ -1,0 +1,77 @@
+#include "io/statement_options.h"
+
+#include <algorithm>
+
+namespace gradeline {
+
+StatementOptions::StatementOptions(const Statement& statement,
+                                   const std::vector<std::string>& allowed,
+                                   const std::string& file, UnitSystem units,
+                                   Diagnostics* diagnostics)
+    : statement_(statement), file_(file), units_(units), diagnostics_(diagnostics) {
+  for (std::size_t i = 0; i < statement.options.size(); ++i) {
+    const std::string& key = statement.options[i].first;
+    if (std::find(allowed.begin(), allowed.end(), key) == allowed.end()) {
+      std::string message = "unknown key '" + key + "' for " + statement.keyword;
+      std::string near = nearest_word(key, allowed);
+      if (!near.empty()) message += " (did you mean '" + near + "'?)";
+      error(message);
+      continue;
+    }
+    for (std::size_t j = 0; j < i; ++j) {
+      if (statement.options[j].first == key) {
+        error("key '" + key + "' given twice");
+        break;
+      }
+    }
+  }
+}
+
+const std::string* StatementOptions::find(const std::string& key) const {
+  for (const auto& [k, v] : statement_.options) {
+    if (k == key) return &v;
+  }
+  return nullptr;
+}
+
+void StatementOptions::error(std::string message) {
+  diagnostics_->error(file_, statement_.line, std::move(message));
+}
+
+std::optional<Quantity> StatementOptions::raw_quantity(const std::string& key,
+                                                       Dimension dimension) {
+  const std::string* text = find(key);
+  if (text == nullptr) return std::nullopt;
+  UnitParse parsed = parse_quantity(*text, dimension, units_);
+  if (!parsed.ok) {
+    error(key + ": " + parsed.error);
+    return std::nullopt;
+  }
+  return parsed.quantity;
+}
+
+std::optional<double> StatementOptions::quantity(const std::string& key, Dimension dimension,
+                                                 const Range& range) {
+  std::optional<Quantity> q = raw_quantity(key, dimension);
+  if (!q) return std::nullopt;
+  const double v = q->value;
+  const std::string& text = *find(key);
+  const bool below = range.min_inclusive ? v < range.min : v <= range.min;
+  if (below) {
+    if (range.min == 0.0 && !range.min_inclusive) {
+      error(key + " must be positive, got '" + text + "'");
+    } else if (range.min == 0.0) {
+      error(key + " must not be negative, got '" + text + "'");
+    } else {
+      error(key + " '" + text + "' is out of range");
+    }
+    return std::nullopt;
+  }
+  if (v > range.max) {
+    error(key + " '" + text + "' is out of range: at most " + range.max_text);
+    return std::nullopt;
+  }
+  return v;
+}
+
+}  // namespace gradeline

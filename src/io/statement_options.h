@@ -1,0 +1,45 @@
+// Reading the key=value pairs of one statement: unknown and repeated keys are reported with a
+// suggestion, and values are converted to SI with their range checked.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "gradeline/network.h"
+#include "io/diagnostics.h"
+#include "io/lexer.h"
+#include "model/units.h"
+
+namespace gradeline {
+
+struct Range {
+  double min = 0.0;      // SI
+  double max = 0.0;      // SI
+  bool min_inclusive = false;
+  const char* max_text = "";  // the bound as written in messages, e.g. "20 m"
+};
+
+class StatementOptions {
+ public:
+  // Reports every key of `statement` that is not in `allowed`, and every repeated key.
+  StatementOptions(const Statement& statement, const std::vector<std::string>& allowed,
+                   const std::string& file, UnitSystem units, Diagnostics* diagnostics);
+
+  bool has(const std::string& key) const { return find(key) != nullptr; }
+  const std::string* find(const std::string& key) const;
+
+  // The value as a quantity of `dimension`, in SI; nullopt (with an error reported) when it is
+  // missing, malformed or outside `range`.
+  std::optional<double> quantity(const std::string& key, Dimension dimension, const Range& range);
+  std::optional<Quantity> raw_quantity(const std::string& key, Dimension dimension);
+  void error(std::string message);
+
+ private:
+  const Statement& statement_;
+  std::string file_;
+  UnitSystem units_;
+  Diagnostics* diagnostics_;
+};
+
+}  // namespace gradeline

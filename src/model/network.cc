@@ -1,0 +1,40 @@
+#include "gradeline/network.h"
+
+namespace gradeline {
+
+std::optional<std::size_t> Network::find_node(const std::string& id) const {
+  auto it = node_index_.find(id);
+  if (it == node_index_.end()) return std::nullopt;
+  return it->second;
+}
+
+std::optional<std::size_t> Network::find_pipe(const std::string& id) const {
+  auto it = pipe_index_.find(id);
+  if (it == pipe_index_.end()) return std::nullopt;
+  return it->second;
+}
+
+void Network::reindex() {
+  node_index_.clear();
+  pipe_index_.clear();
+  node_index_.reserve(nodes.size());
+  pipe_index_.reserve(pipes.size());
+  for (std::size_t i = 0; i < nodes.size(); ++i) node_index_.emplace(nodes[i].id, i);
+  for (std::size_t i = 0; i < pipes.size(); ++i) pipe_index_.emplace(pipes[i].id, i);
+}
+
+std::size_t Network::add_node(Node node) {
+  std::size_t index = nodes.size();
+  node_index_.emplace(node.id, index);
+  nodes.push_back(std::move(node));
+  return index;
+}
+
+std::size_t Network::add_pipe(Pipe pipe) {
+  std::size_t index = pipes.size();
+  pipe_index_.emplace(pipe.id, index);
+  pipes.push_back(std::move(pipe));
+  return index;
+}
+
+}  // namespace gradeline

@@ -1,0 +1,85 @@
+#include "model/topology.h"
+
+namespace gradeline {
+
+Topology build_topology(const Network& net) {
+  Topology t;
+  const std::size_t n = net.nodes.size();
+  t.offsets.assign(n + 1, 0);
+  for (const Pipe& p : net.pipes) {
+    ++t.offsets[p.from + 1];
+    ++t.offsets[p.to + 1];
+  }
+  for (std::size_t i = 0; i < n; ++i) t.offsets[i + 1] += t.offsets[i];
+  t.links.resize(t.offsets[n]);
+  std::vector<std::size_t> next(t.offsets.begin(), t.offsets.end() - 1);
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    t.links[next[net.pipes[k].from]++] = k;
+    t.links[next[net.pipes[k].to]++] = k;
+  }
+  return t;
+}
+
+namespace {
+
+// Breadth-first labelling from the seeds in `queue`, marking reached nodes with `label`.
+void flood(const Network& net, const Topology& t, const std::vector<char>& link_open,
+           std::vector<std::size_t>& queue, std::vector<std::size_t>& mark, std::size_t label) {
+  for (std::size_t head = 0; head < queue.size(); ++head) {
+    const std::size_t node = queue[head];
+    for (std::size_t e = t.offsets[node]; e < t.offsets[node + 1]; ++e) {
+      const std::size_t k = t.links[e];
+      if (!link_open[k]) continue;
+      const Pipe& p = net.pipes[k];
+      const std::size_t other = p.from == node ? p.to : p.from;
+      if (mark[other] == static_cast<std::size_t>(-1)) {
+        mark[other] = label;
+        queue.push_back(other);
+      }
+    }
+  }
+}
+
+}  // namespace
+
+std::vector<char> find_supplied(const Network& net, const Topology& t,
+                                const std::vector<char>& link_open) {
+  const std::size_t none = static_cast<std::size_t>(-1);
+  std::vector<std::size_t> mark(net.nodes.size(), none);
+  std::vector<std::size_t> queue;
+  for (std::size_t i = 0; i < net.nodes.size(); ++i) {
+    if (net.nodes[i].is_fixed_head()) {
+      mark[i] = 0;
+      queue.push_back(i);
+    }
+  }
+  flood(net, t, link_open, queue, mark, 0);
+  std::vector<char> supplied(net.nodes.size());
+  for (std::size_t i = 0; i < mark.size(); ++i) supplied[i] = mark[i] != none;
+  return supplied;
+}
+
+Islands find_islands(const Network& net, const Topology& t, const std::vector<char>& link_open) {
+  const std::size_t none = static_cast<std::size_t>(-1);
+  Islands out;
+  out.island.assign(net.nodes.size(), none);
+  std::vector<std::size_t> queue;
+  for (std::size_t i = 0; i < net.nodes.size(); ++i) {
+    if (out.island[i] != none) continue;
+    out.island[i] = out.count;
+    queue.assign(1, i);
+    flood(net, t, link_open, queue, out.island, out.count);
+    ++out.count;
+  }
+  return out;
+}
+
+std::vector<char> links_open_in_file(const Network& net) {
+  std::vector<char> open(net.pipes.size());
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    open[k] = net.pipes[k].status == LinkStatus::kOpen;
+  }
+  return open;
+}
+
+}  // namespace gradeline

@@ -1,0 +1,37 @@
+// Connectivity of a network: which links meet at each node, which nodes can reach a fixed
+// head through open links, and the islands of the network.
+#pragma once
+
+#include <cstddef>
+#include <vector>
+
+#include "gradeline/network.h"
+
+namespace gradeline {
+
+// Node-to-link incidence in compressed rows: the links at node n are
+// links[offsets[n]] .. links[offsets[n + 1] - 1].
+struct Topology {
+  std::vector<std::size_t> offsets;
+  std::vector<std::size_t> links;
+};
+
+Topology build_topology(const Network& network);
+
+// supplied[n] is 1 when node n reaches a fixed-head node through links whose link_open is 1.
+std::vector<char> find_supplied(const Network& network, const Topology& topology,
+                                const std::vector<char>& link_open);
+
+// Connected components through the links whose link_open is 1; island[n] numbers them from 0.
+struct Islands {
+  std::size_t count = 0;
+  std::vector<std::size_t> island;
+};
+
+Islands find_islands(const Network& network, const Topology& topology,
+                     const std::vector<char>& link_open);
+
+// 1 for every link the file leaves open, 0 for closed ones.
+std::vector<char> links_open_in_file(const Network& network);
+
+}  // namespace gradeline

@@ -1,0 +1,162 @@
+#include "report/text_report.h"
+
+#include <cmath>
+#include <cstdarg>
+#include <cstdio>
+
+#include "gradeline/version.h"
+#include "model/units.h"
+#include "report/result_totals.h"
+
+namespace gradeline {
+namespace {
+
+void appendf(std::string* out, const char* format, ...) {
+  char buffer[512];
+  va_list args;
+  va_start(args, format);
+  std::vsnprintf(buffer, sizeof buffer, format, args);
+  va_end(args);
+  *out += buffer;
+}
+
+std::string rule(std::size_t width) { return std::string(width, '-') + "\n"; }
+
+}  // namespace
+
+std::string solve_summary_text(const Network& net, const SolveResult& r, const std::string& file) {
+  const SolveSummary& s = r.summary;
+  const DisplayUnit flow = display_flow(net.units);
+  std::string out;
+  appendf(&out, "gradeline %s  steady-state hydraulic solve\n", kVersion);
+  appendf(&out, "network     %s%s%s\n", file.c_str(), net.title.empty() ? "" : "  -  ",
+          net.title.c_str());
+  appendf(&out, "model       %zu nodes, %zu pipes, %s, fluid %.1f kg/m3, nu %.4g m2/s\n",
+          net.nodes.size(), net.pipes.size(),
+          net.headloss.law == HeadlossLaw::kDarcyWeisbach ? "Darcy-Weisbach (Colebrook-White)"
+                                                          : "Hazen-Williams",
+          net.fluid.density_kgm3, net.fluid.kinematic_viscosity_m2s);
+  if (s.converged()) {
+    appendf(&out, "status      SOLVED in %d Newton iterations\n", s.iterations);
+  } else {
+    appendf(&out, "status      NOT SOLVED (%s): %s\n", termination_name(s.termination),
+            s.message.c_str());
+  }
+  appendf(&out, "residuals   continuity %.2e m3/s max", s.max_continuity_residual_m3s);
+  if (!net.nodes.empty()) appendf(&out, " (node %s)", net.nodes[s.worst_continuity_node].id.c_str());
+  appendf(&out, ", energy %.2e m max", s.max_energy_residual_m);
+  if (!net.pipes.empty()) appendf(&out, " (pipe %s)", net.pipes[s.worst_energy_link].id.c_str());
+  out += "\n";
+  if (!s.converged()) return out;
+
+  ResultTotals totals = result_totals(net, r);
+  appendf(&out, "demand      %.3f %s delivered", totals.demand_m3s * flow.per_si, flow.name);
+  if (s.unsupplied_nodes > 0) {
+    appendf(&out, "; %zu unsupplied nodes, %.3f %s not delivered", s.unsupplied_nodes,
+            totals.undelivered_demand_m3s * flow.per_si, flow.name);
+  }
+  out += "\n";
+  for (const SourceFlow& f : totals.sources) {
+    appendf(&out, "source      %-12s %10.3f %s %s\n", net.nodes[f.node].id.c_str(),
+            std::abs(f.inflow_m3s) * flow.per_si, flow.name,
+            f.inflow_m3s >= 0.0 ? "supplied" : "received");
+  }
+  return out;
+}
+
+std::string solve_report_text(const Network& net, const SolveResult& r, const std::string& file,
+                              const ReportOptions& options) {
+  std::string out = solve_summary_text(net, r, file);
+  if (!r.summary.converged()) return out;
+  const DisplayUnit flow = display_flow(net.units);
+  const DisplayUnit len = display_length(net.units);
+  const DisplayUnit dia = display_diameter(net.units);
+  const DisplayUnit pres = display_pressure(net.units);
+  const DisplayUnit vel = display_velocity(net.units);
+
+  std::string warnings;
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    const NodeState& ns = r.nodes[n];
+    if (net.nodes[n].is_fixed_head()) continue;
+    if (!ns.supplied) {
+      appendf(&warnings, "  ! node %s has no open path to a source (unsupplied)\n",
+              net.nodes[n].id.c_str());
+    } else if (ns.pressure_m < 0.0) {
+      appendf(&warnings, "  ! node %s has NEGATIVE pressure %.2f %s (%.2f %s head)\n",
+              net.nodes[n].id.c_str(), ns.pressure_pa * pres.per_si, pres.name,
+              ns.pressure_m * len.per_si, len.name);
+    }
+  }
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    const LinkState& ls = r.links[k];
+    if (std::abs(ls.velocity_ms) > kHighVelocity_ms) {
+      appendf(&warnings, "  ! pipe %s velocity %.2f %s is above %.1f %s\n", net.pipes[k].id.c_str(),
+              std::abs(ls.velocity_ms) * vel.per_si, vel.name, kHighVelocity_ms * vel.per_si,
+              vel.name);
+    }
+    if (ls.closed_by_check_valve) {
+      appendf(&warnings, "  - check valve on pipe %s is closed against reverse flow\n",
+              net.pipes[k].id.c_str());
+    }
+  }
+  if (!warnings.empty()) out += "\nwarnings\n" + warnings;
+
+  if (options.tables) {
+    out += "\nnodes\n";
+    char header[256];
+    std::snprintf(header, sizeof header, "  %-14s %10s %10s %11s %11s %11s  %s\n", "id",
+                  ("elev " + std::string(len.name)).c_str(), ("head " + std::string(len.name)).c_str(),
+                  ("p-head " + std::string(len.name)).c_str(),
+                  ("pressure " + std::string(pres.name)).c_str(),
+                  ("demand " + std::string(flow.name)).c_str(), "note");
+    out += header;
+    out += "  " + rule(std::string(header).size() - 3);
+    for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+      const Node& node = net.nodes[n];
+      const NodeState& ns = r.nodes[n];
+      const char* note = node.is_fixed_head() ? "fixed head"
+                         : !ns.supplied       ? "UNSUPPLIED"
+                         : ns.pressure_m < 0  ? "NEGATIVE"
+                                              : "";
+      if (!ns.supplied) {
+        appendf(&out, "  %-14s %10.2f %10s %11s %11s %11.3f  %s\n", node.id.c_str(),
+                node.elevation_m * len.per_si, "-", "-", "-", ns.demand_m3s * flow.per_si, note);
+        continue;
+      }
+      appendf(&out, "  %-14s %10.2f %10.2f %11.2f %11.1f %11.3f  %s\n", node.id.c_str(),
+              node.elevation_m * len.per_si, ns.head_m * len.per_si, ns.pressure_m * len.per_si,
+              ns.pressure_pa * pres.per_si, ns.demand_m3s * flow.per_si, note);
+    }
+
+    out += "\npipes\n";
+    std::snprintf(header, sizeof header, "  %-10s %-10s %-10s %9s %8s %10s %8s %8s %9s %9s %7s  %s\n",
+                  "id", "from", "to", ("len " + std::string(len.name)).c_str(),
+                  ("D " + std::string(dia.name)).c_str(), ("flow " + std::string(flow.name)).c_str(),
+                  ("v " + std::string(vel.name)).c_str(), ("hL " + std::string(len.name)).c_str(),
+                  "hL m/km", "Re", "f", "regime");
+    out += header;
+    out += "  " + rule(std::string(header).size() - 3);
+    for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+      const Pipe& p = net.pipes[k];
+      const LinkState& ls = r.links[k];
+      appendf(&out, "  %-10s %-10s %-10s %9.1f %8.1f ", p.id.c_str(), net.nodes[p.from].id.c_str(),
+              net.nodes[p.to].id.c_str(), p.length_m * len.per_si, p.diameter_m * dia.per_si);
+      if (!ls.open) {
+        appendf(&out, "%10s %8s %8s %9s %9s %7s  %s\n", "0", "-", "-", "-", "-", "-",
+                ls.closed_by_check_valve       ? "closed (check valve)"
+                : p.status == LinkStatus::kClosed ? "closed"
+                                                  : "unsupplied");
+        continue;
+      }
+      appendf(&out, "%10.3f %8.3f %8.3f %9.3f %9.3g %7.4f  %s\n", ls.flow_m3s * flow.per_si,
+              ls.velocity_ms * vel.per_si, ls.headloss_m * len.per_si,
+              ls.headloss_m / p.length_m * 1e3, ls.reynolds, ls.friction_factor,
+              regime_name(ls.regime));
+    }
+  }
+  out += "\n";
+  out += kCaution;
+  return out;
+}
+
+}  // namespace gradeline

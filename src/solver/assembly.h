@@ -1,0 +1,40 @@
+// Assembly of the global-gradient (Schur complement) matrix
+//     A = B^T G^-1 B    over the free (junction) nodes,
+// where B is the link-node incidence matrix (+1 at a link's `from` node, -1 at its `to` node)
+// and G = diag(dh/dQ). Link k adds its conductance c_k = 1/G_k to the diagonal at both ends and
+// -c_k off the diagonal. A unit diagonal stands in for each unsupplied node, whose head is not
+// defined, so the matrix stays positive definite without changing its pattern.
+//
+// The pattern holds every link, closed or open, so it never changes during a solve: a link
+// that closes only gets c_k = 0. The plan maps each link straight to its slots in the value
+// array, so numeric assembly is one pass over the links with no search and no allocation.
+#pragma once
+
+#include <cstddef>
+#include <vector>
+
+#include "gradeline/network.h"
+#include "solver/sparse_cholesky.h"
+
+namespace gradeline {
+
+inline constexpr int kNoSlot = -1;
+
+struct AssemblyPlan {
+  int unknowns = 0;                 // number of junctions
+  std::vector<int> unknown_of_node; // -1 for fixed-head nodes
+  std::vector<int> diagonal_slot;   // per unknown
+  std::vector<int> from_slot;       // per link: diagonal slot of `from`, or kNoSlot if fixed
+  std::vector<int> to_slot;
+  std::vector<int> off_slot;        // per link: off-diagonal slot, kNoSlot unless both free
+  LowerMatrix matrix;               // the pattern; values are overwritten by assemble_matrix
+};
+
+AssemblyPlan plan_assembly(const Network& network);
+
+// Writes the values of A into plan->matrix. `conductance` has one entry per link (0 for an
+// inactive link); `unsupplied` one per node.
+void assemble_matrix(const std::vector<double>& conductance, const std::vector<char>& unsupplied,
+                     AssemblyPlan* plan);
+
+}  // namespace gradeline

@@ -1,0 +1,388 @@
+#include "solver/newton.h"
+
+#include <chrono>
+#include <cmath>
+#include <limits>
+#include <sstream>
+
+#include "hydraulics/link_law.h"
+#include "model/topology.h"
+#include "solver/assembly.h"
+#include "solver/residuals.h"
+#include "solver/sparse_cholesky.h"
+
+namespace gradeline {
+namespace {
+
+using Clock = std::chrono::steady_clock;
+
+double seconds_since(Clock::time_point t) {
+  return std::chrono::duration<double>(Clock::now() - t).count();
+}
+
+constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
+
+struct State {
+  std::vector<double> flow;
+  std::vector<double> head;
+};
+
+class GradientSolver {
+ public:
+  GradientSolver(const Network& net, const SolveOptions& options)
+      : net_(net), options_(options) {}
+  SolveResult run();
+
+ private:
+  void update_active_set();
+  void evaluate(const State& s);
+  ResidualNorms residuals(const State& s) {
+    return compute_residuals(net_, s.flow, headloss_, s.head, demand_, supplied_, active_,
+                             nullptr, nullptr);
+  }
+  bool newton_step(State* next);
+  bool update_check_valves(const State& s);
+  bool check_valves_consistent(const State& s, std::string* why) const;
+  SolveResult finish(const State& s, Termination t, std::string message);
+
+  const Network& net_;
+  const SolveOptions& options_;
+  std::vector<PipeLaw> laws_;
+  Topology topology_;
+  AssemblyPlan plan_;
+  std::unique_ptr<SparseCholesky> cholesky_;
+  std::vector<char> file_open_, cv_closed_, link_open_, supplied_, unsupplied_, active_;
+  std::vector<int> toggles_;
+  std::vector<double> demand_, headloss_, dh_dq_, conductance_;
+  Eigen::VectorXd rhs_, x_;
+  SolveTiming timing_;
+  int iterations_ = 0;
+  Clock::time_point start_ = Clock::now();
+};
+
+void GradientSolver::update_active_set() {
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) link_open_[k] = file_open_[k] && !cv_closed_[k];
+  supplied_ = find_supplied(net_, topology_, link_open_);
+  for (std::size_t n = 0; n < net_.nodes.size(); ++n) unsupplied_[n] = !supplied_[n];
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
+    active_[k] = link_open_[k] && supplied_[net_.pipes[k].from];
+  }
+}
+
+void GradientSolver::evaluate(const State& s) {
+  auto t = Clock::now();
+  for (std::size_t k = 0; k < laws_.size(); ++k) {
+    if (!active_[k]) {
+      headloss_[k] = 0.0;
+      dh_dq_[k] = 0.0;
+      continue;
+    }
+    LinkEval e = evaluate_pipe(laws_[k], s.flow[k]);
+    headloss_[k] = e.headloss_m;
+    dh_dq_[k] = e.dh_dq;
+  }
+  timing_.assembly_s += seconds_since(t);
+}
+
+bool GradientSolver::newton_step(State* next) {
+  auto t = Clock::now();
+  const std::size_t links = net_.pipes.size();
+  for (std::size_t k = 0; k < links; ++k) conductance_[k] = active_[k] ? 1.0 / dh_dq_[k] : 0.0;
+  assemble_matrix(conductance_, unsupplied_, &plan_);
+  rhs_.setZero();
+  for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
+    const int u = plan_.unknown_of_node[n];
+    if (u >= 0 && supplied_[n]) rhs_[u] = -demand_[n];
+  }
+  for (std::size_t k = 0; k < links; ++k) {
+    if (!active_[k]) continue;
+    const Pipe& p = net_.pipes[k];
+    const int a = plan_.unknown_of_node[p.from];
+    const int b = plan_.unknown_of_node[p.to];
+    double y = headloss_[k];  // h(Q) - B0 H0
+    if (a < 0) y -= next->head[p.from];
+    if (b < 0) y += next->head[p.to];
+    const double contribution = conductance_[k] * y - next->flow[k];
+    if (a >= 0) rhs_[a] += contribution;
+    if (b >= 0) rhs_[b] -= contribution;
+  }
+  timing_.assembly_s += seconds_since(t);
+
+  t = Clock::now();
+  const bool factored = cholesky_->factorize(plan_.matrix);
+  timing_.numeric_factor_s += seconds_since(t);
+  if (!factored) return false;
+  t = Clock::now();
+  const bool solved = cholesky_->solve(rhs_, &x_);
+  timing_.triangular_solve_s += seconds_since(t);
+  if (!solved) return false;
+
+  for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
+    const int u = plan_.unknown_of_node[n];
+    if (u >= 0) next->head[n] = supplied_[n] ? x_[u] : 0.0;
+  }
+  for (std::size_t k = 0; k < links; ++k) {
+    if (!active_[k]) {
+      next->flow[k] = 0.0;
+      continue;
+    }
+    const Pipe& p = net_.pipes[k];
+    const double dh = next->head[p.from] - next->head[p.to];
+    next->flow[k] += conductance_[k] * (dh - headloss_[k]);
+  }
+  return true;
+}
+
+bool GradientSolver::update_check_valves(const State& s) {
+  bool changed = false;
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
+    const Pipe& p = net_.pipes[k];
+    if (!p.check_valve || !file_open_[k] || toggles_[k] >= kMaxStatusToggles) continue;
+    if (!cv_closed_[k] && active_[k] && s.flow[k] < 0.0) {
+      cv_closed_[k] = 1;
+    } else if (cv_closed_[k] && supplied_[p.from] && supplied_[p.to] &&
+               s.head[p.from] > s.head[p.to]) {
+      cv_closed_[k] = 0;
+    } else if (cv_closed_[k] && supplied_[p.from] && !supplied_[p.to]) {
+      cv_closed_[k] = 0;  // the downstream side is fed only through this valve
+    } else {
+      continue;
+    }
+    ++toggles_[k];
+    changed = true;
+  }
+  if (changed) update_active_set();
+  return changed;
+}
+
+bool GradientSolver::check_valves_consistent(const State& s, std::string* why) const {
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
+    const Pipe& p = net_.pipes[k];
+    if (!p.check_valve || !file_open_[k]) continue;
+    if (cv_closed_[k] && supplied_[p.from] && supplied_[p.to] &&
+        s.head[p.from] > s.head[p.to] + options_.energy_tolerance_m) {
+      *why = "check valve '" + p.id + "' is closed with a head favouring forward flow";
+      return false;
+    }
+    if (!cv_closed_[k] && active_[k] && s.flow[k] < -options_.continuity_tolerance_m3s) {
+      *why = "check valve '" + p.id + "' is open with reverse flow";
+      return false;
+    }
+  }
+  return true;
+}
+
+SolveResult GradientSolver::run() {
+  const std::size_t nodes = net_.nodes.size();
+  const std::size_t links = net_.pipes.size();
+  auto t = Clock::now();
+  laws_.reserve(links);
+  for (const Pipe& p : net_.pipes) {
+    laws_.push_back(make_pipe_law(p, net_.headloss, net_.fluid, options_.hw_regularisation_flow_m3s));
+  }
+  topology_ = build_topology(net_);
+  file_open_ = links_open_in_file(net_);
+  cv_closed_.assign(links, 0);
+  toggles_.assign(links, 0);
+  link_open_.assign(links, 0);
+  unsupplied_.assign(nodes, 0);
+  active_.assign(links, 0);
+  update_active_set();
+  timing_.topology_s = seconds_since(t);
+
+  t = Clock::now();
+  plan_ = plan_assembly(net_);
+  cholesky_ = make_sparse_cholesky();
+  const bool analysed = cholesky_->analyze(plan_.matrix);
+  timing_.symbolic_s = seconds_since(t);
+
+  State s;
+  s.flow.assign(links, 0.0);
+  s.head.assign(nodes, 0.0);
+  demand_.resize(nodes);
+  double mean_fixed = 0.0;
+  int fixed = 0;
+  for (std::size_t n = 0; n < nodes; ++n) {
+    demand_[n] = net_.nodes[n].is_fixed_head() ? 0.0 : net_.nodes[n].demand_m3s;
+    if (net_.nodes[n].is_fixed_head()) {
+      s.head[n] = net_.nodes[n].head_m;
+      mean_fixed += s.head[n];
+      ++fixed;
+    }
+  }
+  if (fixed > 0) mean_fixed /= fixed;
+  for (std::size_t n = 0; n < nodes; ++n) {
+    if (!net_.nodes[n].is_fixed_head()) s.head[n] = mean_fixed;
+  }
+  for (std::size_t k = 0; k < links; ++k) {
+    if (active_[k]) s.flow[k] = kInitialVelocity_ms * laws_[k].area_m2;
+  }
+  headloss_.assign(links, 0.0);
+  dh_dq_.assign(links, 0.0);
+  conductance_.assign(links, 0.0);
+  rhs_.resize(plan_.unknowns);
+  if (!analysed) return finish(s, Termination::kLinearSolverFailed, "symbolic analysis failed");
+
+  bool evaluated = false;
+  bool status_changed = true;
+  ResidualNorms norms;
+  for (int iteration = 0;; ++iteration) {
+    if (!evaluated) evaluate(s);
+    norms = residuals(s);
+    if (!norms.finite) return finish(s, Termination::kNonFinite, "the state is not finite");
+    const bool small = norms.max_energy_m <= options_.energy_tolerance_m &&
+                       norms.max_continuity_m3s <= options_.continuity_tolerance_m3s;
+    if (iteration > 0 && small && !status_changed) {
+      std::string why;
+      if (!check_valves_consistent(s, &why)) return finish(s, Termination::kMaxIterations, why);
+      return finish(s, Termination::kConverged, "");
+    }
+    if (iteration >= options_.max_iterations) {
+      return finish(s, Termination::kMaxIterations, "");
+    }
+    iterations_ = iteration + 1;
+    State next = s;
+    if (!newton_step(&next)) {
+      return finish(s, Termination::kLinearSolverFailed,
+                    "the global-gradient matrix is not positive definite");
+    }
+    // Backtracking: from the second step on, the direction keeps continuity satisfied and
+    // the energy residual should fall.
+    evaluate(next);
+    if (iteration > 0 && !status_changed) {
+      double old_merit = norms.energy_sum_squares;
+      State trial = next;
+      double alpha = 1.0;
+      for (int halving = 0; halving < options_.max_step_halvings; ++halving) {
+        ResidualNorms r = residuals(trial);
+        if (r.finite && r.energy_sum_squares <= old_merit) break;
+        alpha *= 0.5;
+        for (std::size_t k = 0; k < links; ++k)
+          trial.flow[k] = s.flow[k] + alpha * (next.flow[k] - s.flow[k]);
+        for (std::size_t n = 0; n < nodes; ++n)
+          trial.head[n] = s.head[n] + alpha * (next.head[n] - s.head[n]);
+        evaluate(trial);
+      }
+      next = std::move(trial);
+    }
+    s = std::move(next);
+    evaluated = true;
+    status_changed = update_check_valves(s);
+    if (status_changed) {
+      for (std::size_t k = 0; k < links; ++k) {
+        if (!active_[k]) s.flow[k] = 0.0;
+      }
+      evaluated = false;
+    }
+  }
+}
+
+SolveResult GradientSolver::finish(const State& s, Termination termination, std::string message) {
+  SolveResult result;
+  SolveSummary& sum = result.summary;
+  sum.termination = termination;
+  sum.iterations = iterations_;
+  const std::size_t nodes = net_.nodes.size();
+  const std::size_t links = net_.pipes.size();
+
+  std::vector<double> node_res, link_res;
+  evaluate(s);
+  ResidualNorms norms = compute_residuals(net_, s.flow, headloss_, s.head, demand_, supplied_,
+                                          active_, &node_res, &link_res);
+  sum.max_continuity_residual_m3s = norms.max_continuity_m3s;
+  sum.max_energy_residual_m = norms.max_energy_m;
+  sum.worst_continuity_node = norms.worst_node;
+  sum.worst_energy_link = norms.worst_link;
+
+  result.nodes.resize(nodes);
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  for (std::size_t n = 0; n < nodes; ++n) {
+    NodeState& ns = result.nodes[n];
+    const Node& node = net_.nodes[n];
+    ns.supplied = supplied_[n];
+    ns.demand_m3s = demand_[n];
+    ns.continuity_residual_m3s = node_res[n];
+    ns.head_m = supplied_[n] ? s.head[n] : nan;
+    ns.pressure_m = ns.head_m - node.elevation_m;
+    ns.pressure_pa = ns.pressure_m * net_.fluid.density_kgm3 * kGravity_ms2;
+    if (!supplied_[n]) ++sum.unsupplied_nodes;
+  }
+  result.links.resize(links);
+  for (std::size_t k = 0; k < links; ++k) {
+    LinkState& ls = result.links[k];
+    ls.open = active_[k];
+    ls.closed_by_check_valve = cv_closed_[k];
+    ls.energy_residual_m = link_res[k];
+    if (!active_[k]) continue;
+    LinkEval e = evaluate_pipe(laws_[k], s.flow[k]);
+    ls.flow_m3s = s.flow[k];
+    ls.velocity_ms = s.flow[k] / laws_[k].area_m2;
+    ls.headloss_m = e.headloss_m;
+    ls.reynolds = e.reynolds;
+    ls.friction_factor = e.friction_factor;
+    ls.regime = e.regime;
+  }
+
+  if (termination != Termination::kConverged && message.empty()) {
+    std::ostringstream m;
+    m << "no convergence after " << sum.iterations << " iterations";
+    if (links > 0) {
+      m << ": largest energy residual " << norms.max_energy_m << " m on pipe '"
+        << net_.pipes[norms.worst_link].id << "'";
+    }
+    if (nodes > 0) {
+      m << ", largest continuity residual " << norms.max_continuity_m3s << " m3/s at node '"
+        << net_.nodes[norms.worst_node].id << "'";
+    }
+    message = m.str();
+  }
+  sum.message = std::move(message);
+  timing_.total_s = seconds_since(start_);
+  sum.timing = timing_;
+  return result;
+}
+
+}  // namespace
+
+std::string SolveOptions::validate() const {
+  if (max_iterations < 1 || max_iterations > 10000) return "max_iterations must be in 1..10000";
+  if (!(energy_tolerance_m > 0.0)) return "energy_tolerance_m must be positive";
+  if (!(continuity_tolerance_m3s > 0.0)) return "continuity_tolerance_m3s must be positive";
+  if (max_step_halvings < 0 || max_step_halvings > 60) return "max_step_halvings must be in 0..60";
+  if (!(hw_regularisation_flow_m3s > 0.0)) return "hw_regularisation_flow_m3s must be positive";
+  return "";
+}
+
+SolveResult solve(const Network& network, const SolveOptions& options) {
+  std::string invalid = options.validate();
+  if (!invalid.empty()) {
+    SolveResult r;
+    r.summary.termination = Termination::kInvalidOptions;
+    r.summary.message = invalid;
+    return r;
+  }
+  return GradientSolver(network, options).run();
+}
+
+const char* termination_name(Termination t) {
+  switch (t) {
+    case Termination::kConverged: return "converged";
+    case Termination::kMaxIterations: return "iteration limit reached";
+    case Termination::kLinearSolverFailed: return "linear solver failed";
+    case Termination::kNonFinite: return "non-finite state";
+    case Termination::kInvalidOptions: return "invalid options";
+  }
+  return "unknown";
+}
+
+const char* regime_name(FlowRegime r) {
+  switch (r) {
+    case FlowRegime::kNone: return "none";
+    case FlowRegime::kLaminar: return "laminar";
+    case FlowRegime::kTransitional: return "transitional";
+    case FlowRegime::kTurbulent: return "turbulent";
+  }
+  return "none";
+}
+
+}  // namespace gradeline
