@@ -37,6 +37,8 @@ const std::vector<std::string> kKeywords = {"title", "units", "headloss", "fluid
 
 struct PendingPipe {
   Pipe pipe;
+  bool roughness_given = false;  // given, even if its value was refused
+  bool cfactor_given = false;
   std::string from_id;
   std::string to_id;
 };
@@ -335,6 +337,8 @@ void NetworkParser::pipe(const Statement& s, const std::string& file) {
   }
   if (auto v = o.quantity("length", Dimension::kLength, kLengthRange)) p.pipe.length_m = *v;
   if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) p.pipe.diameter_m = *v;
+  p.roughness_given = o.has("roughness");
+  p.cfactor_given = o.has("cfactor");
   p.pipe.roughness_m = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange);
   p.pipe.cfactor = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange);
   if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) p.pipe.minor_k = *v;
@@ -412,15 +416,17 @@ ParseResult NetworkParser::finish() {
     if (!ends_ok) continue;
     p.pipe.from = *net_.find_node(p.from_id);
     p.pipe.to = *net_.find_node(p.to_id);
-    if (!p.pipe.roughness_m) p.pipe.roughness_m = default_roughness_m_;
-    if (!p.pipe.cfactor) p.pipe.cfactor = default_cfactor_;
+    if (!p.roughness_given) p.pipe.roughness_m = default_roughness_m_;
+    if (!p.cfactor_given) p.pipe.cfactor = default_cfactor_;
     if (p.pipe.minor_k == 0.0 && default_minor_) p.pipe.minor_k = *default_minor_;
-    if (net_.headloss.law == HeadlossLaw::kDarcyWeisbach && !p.pipe.roughness_m) {
+    if (net_.headloss.law == HeadlossLaw::kDarcyWeisbach && !p.pipe.roughness_m &&
+        !p.roughness_given) {
       error(w.file, w.line,
             "pipe '" + p.pipe.id +
                 "': missing roughness (darcy-weisbach needs roughness= or 'defaults roughness=')");
     }
-    if (net_.headloss.law == HeadlossLaw::kHazenWilliams && !p.pipe.cfactor) {
+    if (net_.headloss.law == HeadlossLaw::kHazenWilliams && !p.pipe.cfactor &&
+        !p.cfactor_given) {
       error(w.file, w.line,
             "pipe '" + p.pipe.id +
                 "': missing cfactor (hazen-williams needs cfactor= or 'defaults cfactor=')");

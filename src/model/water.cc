@@ -13,11 +13,11 @@ double water_density_kgm3(double t) {
   return a5 * (1.0 - (t + a1) * (t + a1) * (t + a2) / (a3 * (t + a4)));
 }
 
-double water_dynamic_viscosity_pas(double temperature_c) {
+double iapws2008_viscosity_pas(double temperature_k, double density_kgm3) {
   constexpr double kCriticalTemperature_k = 647.096;
   constexpr double kCriticalDensity_kgm3 = 322.0;
-  const double tr = (temperature_c + 273.15) / kCriticalTemperature_k;
-  const double dr = water_density_kgm3(temperature_c) / kCriticalDensity_kgm3;
+  const double tr = temperature_k / kCriticalTemperature_k;
+  const double dr = density_kgm3 / kCriticalDensity_kgm3;
 
   // IAPWS 2008, eq. (11): the dilute-gas limit.
   constexpr double h0[4] = {1.67752, 2.20462, 0.6366564, -0.241605};
@@ -42,6 +42,10 @@ double water_dynamic_viscosity_pas(double temperature_c) {
   }
   const double mu1 = std::exp(dr * sum);
   return mu0 * mu1 * 1e-6;  // the release gives mu in micro-pascal seconds
+}
+
+double water_dynamic_viscosity_pas(double temperature_c) {
+  return iapws2008_viscosity_pas(temperature_c + 273.15, water_density_kgm3(temperature_c));
 }
 
 double water_kinematic_viscosity_m2s(double temperature_c) {

@@ -17,6 +17,8 @@ inline constexpr double kWaterMaxTemperature_c = 40.0;
 
 double water_density_kgm3(double temperature_c);
 double water_dynamic_viscosity_pas(double temperature_c);
+// The IAPWS 2008 equations at a given temperature (K) and density (kg/m^3), without mu2.
+double iapws2008_viscosity_pas(double temperature_k, double density_kgm3);
 double water_kinematic_viscosity_m2s(double temperature_c);
 
 }  // namespace gradeline

@@ -108,14 +108,16 @@ bool GradientSolver::newton_step(State* next) {
   }
   timing_.assembly_s += seconds_since(t);
 
-  t = Clock::now();
-  const bool factored = cholesky_->factorize(plan_.matrix);
-  timing_.numeric_factor_s += seconds_since(t);
-  if (!factored) return false;
-  t = Clock::now();
-  const bool solved = cholesky_->solve(rhs_, &x_);
-  timing_.triangular_solve_s += seconds_since(t);
-  if (!solved) return false;
+  if (plan_.unknowns > 0) {  // with only fixed-head nodes there is no system to solve
+    t = Clock::now();
+    const bool factored = cholesky_->factorize(plan_.matrix);
+    timing_.numeric_factor_s += seconds_since(t);
+    if (!factored) return false;
+    t = Clock::now();
+    const bool solved = cholesky_->solve(rhs_, &x_);
+    timing_.triangular_solve_s += seconds_since(t);
+    if (!solved) return false;
+  }
 
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
     const int u = plan_.unknown_of_node[n];
@@ -193,7 +195,7 @@ SolveResult GradientSolver::run() {
   t = Clock::now();
   plan_ = plan_assembly(net_);
   cholesky_ = make_sparse_cholesky();
-  const bool analysed = cholesky_->analyze(plan_.matrix);
+  const bool analysed = plan_.unknowns == 0 || cholesky_->analyze(plan_.matrix);
   timing_.symbolic_s = seconds_since(t);
 
   State s;

@@ -1,0 +1,61 @@
+// Splitting lines into statements.
+#include <doctest/doctest.h>
+
+#include "io/lexer.h"
+
+using namespace gradeline;
+
+TEST_CASE("a statement has a keyword, positional fields, then key=value pairs") {
+  Statement s;
+  LexResult r = lex_line("pipe P1 N1 N2 length=410m diameter=300mm  # trunk", 7, &s);
+  CHECK(r.error.empty());
+  CHECK_FALSE(r.empty);
+  CHECK(s.line == 7);
+  CHECK(s.keyword == "pipe");
+  CHECK(s.positional == std::vector<std::string>{"P1", "N1", "N2"});
+  REQUIRE(s.options.size() == 2);
+  CHECK(s.options[0] == std::make_pair(std::string("length"), std::string("410m")));
+  CHECK(s.options[1].second == "300mm");
+}
+
+TEST_CASE("comments, blank lines, tabs and CR are whitespace") {
+  Statement s;
+  CHECK(lex_line("   # only a comment", 1, &s).empty);
+  CHECK(lex_line("\t\r", 2, &s).empty);
+  LexResult r = lex_line("node\tN1\televation=5\r", 3, &s);
+  CHECK_FALSE(r.empty);
+  CHECK(s.positional == std::vector<std::string>{"N1"});
+  CHECK(s.options[0].second == "5");
+}
+
+TEST_CASE("a positional field after key=value pairs is an error") {
+  Statement s;
+  LexResult r = lex_line("node N1 elevation=5 N2", 1, &s);
+  CHECK(r.error == "positional field 'N2' after key=value pairs");
+}
+
+TEST_CASE("a key=value pair needs a key") {
+  Statement s;
+  CHECK(lex_line("node N1 =5", 1, &s).error == "'=5' has no key before '='");
+}
+
+TEST_CASE("an over-long line is refused") {
+  Statement s;
+  std::string line(kMaxLineLength + 1, 'x');
+  CHECK(lex_line(line, 1, &s).error == "line is longer than 4096 characters");
+}
+
+TEST_CASE("split_lines drops a UTF-8 byte-order mark and keeps a last line with no newline") {
+  auto lines = split_lines("\xEF\xBB\xBFunits SI\r\nnode A elevation=1");
+  REQUIRE(lines.size() == 2);
+  CHECK(lines[0] == "units SI\r");
+  CHECK(lines[1] == "node A elevation=1");
+}
+
+TEST_CASE("IDs may hold unusual printable characters but no separators") {
+  CHECK(is_valid_id("N-12.a/b:c(3)"));
+  CHECK(is_valid_id("Zone\xC3\xA9-7"));  // UTF-8 letters
+  CHECK_FALSE(is_valid_id(""));
+  CHECK_FALSE(is_valid_id("a,b"));
+  CHECK_FALSE(is_valid_id(std::string(kMaxIdLength + 1, 'a')));
+}
