@@ -50,7 +50,7 @@ int run_solve(const SolveArgs& a, Streams io) {
   report.tables = !a.summary_only;
   io.out << solve_report_text(net, result, a.file, report);
   if (!a.json_path.empty()) {
-    std::string text = result_to_json(net, result).dump(1) + "\n";
+    std::string text = result_json_text(net, result);
     if (!write_output(a.json_path, text, {a.file}, io)) return kExitInput;
   }
   if (a.timing) io.err << timing_text(result.summary, parse_s);

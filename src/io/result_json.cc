@@ -1,75 +1,100 @@
 #include "io/result_json.h"
 
-#include <cmath>
-
 #include "report/result_totals.h"
 
 namespace gradeline {
 namespace {
 
-nlohmann::json number_or_null(double v) {
-  return std::isfinite(v) ? nlohmann::json(v) : nlohmann::json(nullptr);
+const char* link_status(const Pipe& p, const LinkState& ls) {
+  if (ls.open) return "open";
+  if (ls.closed_by_check_valve) return "closed-by-check-valve";
+  return p.status == LinkStatus::kClosed ? "closed" : "unsupplied";
+}
+
+void write_summary(const Network& net, const SolveResult& r, JsonStream* j) {
+  const SolveSummary& s = r.summary;
+  ResultTotals totals = result_totals(net, r);
+  j->key("summary");
+  j->begin_object();
+  j->field("converged", s.converged());
+  j->field("termination", termination_name(s.termination));
+  j->field("iterations", s.iterations);
+  j->field("max_continuity_residual_m3s", s.max_continuity_residual_m3s);
+  j->field("max_energy_residual_m", s.max_energy_residual_m);
+  j->field("total_demand_m3s", totals.demand_m3s);
+  j->field("undelivered_demand_m3s", totals.undelivered_demand_m3s);
+  j->field("unsupplied_nodes", s.unsupplied_nodes);
+  j->key("sources");
+  j->begin_array();
+  for (const SourceFlow& f : totals.sources) {
+    j->begin_object();
+    j->field("id", net.nodes[f.node].id);
+    j->field("inflow_m3s", f.inflow_m3s);
+    j->end_object();
+  }
+  j->end_array();
+  j->key("fluid");
+  j->begin_object();
+  j->field("density_kgm3", net.fluid.density_kgm3);
+  j->field("kinematic_viscosity_m2s", net.fluid.kinematic_viscosity_m2s);
+  j->end_object();
+  j->field("headloss", net.headloss.law == HeadlossLaw::kDarcyWeisbach ? "darcy-weisbach"
+                                                                        : "hazen-williams");
+  j->end_object();
 }
 
 }  // namespace
 
-nlohmann::json result_to_json(const Network& net, const SolveResult& r) {
-  using nlohmann::json;
-  const SolveSummary& s = r.summary;
-  ResultTotals totals = result_totals(net, r);
-  json sources = json::array();
-  for (const SourceFlow& f : totals.sources) {
-    sources.push_back({{"id", net.nodes[f.node].id}, {"inflow_m3s", f.inflow_m3s}});
-  }
-  json summary = {
-      {"converged", s.converged()},
-      {"termination", termination_name(s.termination)},
-      {"iterations", s.iterations},
-      {"max_continuity_residual_m3s", s.max_continuity_residual_m3s},
-      {"max_energy_residual_m", s.max_energy_residual_m},
-      {"total_demand_m3s", totals.demand_m3s},
-      {"undelivered_demand_m3s", totals.undelivered_demand_m3s},
-      {"unsupplied_nodes", s.unsupplied_nodes},
-      {"sources", sources},
-      {"fluid", {{"density_kgm3", net.fluid.density_kgm3},
-                 {"kinematic_viscosity_m2s", net.fluid.kinematic_viscosity_m2s}}},
-      {"headloss", net.headloss.law == HeadlossLaw::kDarcyWeisbach ? "darcy-weisbach"
-                                                                    : "hazen-williams"},
-  };
-  json nodes = json::array();
+void write_result_json(const Network& net, const SolveResult& r, JsonStream* j) {
+  j->begin_object();
+  write_summary(net, r, j);
+  j->key("nodes");
+  j->begin_array();
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
     const Node& node = net.nodes[n];
     const NodeState& ns = r.nodes[n];
-    nodes.push_back({{"id", node.id},
-                     {"kind", node.is_fixed_head() ? "reservoir" : "node"},
-                     {"elevation_m", node.elevation_m},
-                     {"head_m", number_or_null(ns.head_m)},
-                     {"pressure_m", number_or_null(ns.pressure_m)},
-                     {"pressure_kPa", number_or_null(ns.pressure_pa * 1e-3)},
-                     {"demand_m3s", ns.demand_m3s},
-                     {"supplied", ns.supplied}});
+    j->begin_object();
+    j->field("id", node.id);
+    j->field("kind", node.is_fixed_head() ? "reservoir" : "node");
+    j->field("elevation_m", node.elevation_m);
+    j->field("head_m", ns.head_m);
+    j->field("pressure_m", ns.pressure_m);
+    j->field("pressure_kPa", ns.pressure_pa * 1e-3);
+    j->field("demand_m3s", ns.demand_m3s);
+    j->field("supplied", ns.supplied);
+    j->end_object();
   }
-  json links = json::array();
+  j->end_array();
+  j->key("links");
+  j->begin_array();
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
     const Pipe& p = net.pipes[k];
     const LinkState& ls = r.links[k];
-    const char* status = ls.open ? "open" : (ls.closed_by_check_valve ? "closed-by-check-valve"
-                                             : p.status == LinkStatus::kClosed ? "closed"
-                                                                               : "unsupplied");
-    links.push_back({{"id", p.id},
-                     {"kind", "pipe"},
-                     {"from", net.nodes[p.from].id},
-                     {"to", net.nodes[p.to].id},
-                     {"flow_m3s", ls.flow_m3s},
-                     {"velocity_ms", ls.velocity_ms},
-                     {"headloss_m", ls.headloss_m},
-                     {"headloss_m_per_km", ls.headloss_m / p.length_m * 1e3},
-                     {"reynolds", ls.reynolds},
-                     {"friction_factor", ls.friction_factor},
-                     {"regime", regime_name(ls.regime)},
-                     {"status", status}});
+    j->begin_object();
+    j->field("id", p.id);
+    j->field("kind", "pipe");
+    j->field("from", net.nodes[p.from].id);
+    j->field("to", net.nodes[p.to].id);
+    j->field("flow_m3s", ls.flow_m3s);
+    j->field("velocity_ms", ls.velocity_ms);
+    j->field("headloss_m", ls.headloss_m);
+    j->field("headloss_m_per_km", ls.headloss_m / p.length_m * 1e3);
+    j->field("reynolds", ls.reynolds);
+    j->field("friction_factor", ls.friction_factor);
+    j->field("regime", regime_name(ls.regime));
+    j->field("status", link_status(p, ls));
+    j->end_object();
   }
-  return json{{"summary", summary}, {"nodes", nodes}, {"links", links}};
+  j->end_array();
+  j->end_object();
+}
+
+std::string result_json_text(const Network& net, const SolveResult& r) {
+  std::string text;
+  text.reserve(256 * (net.nodes.size() + net.pipes.size()) + 1024);
+  JsonStream j(&text);
+  write_result_json(net, r, &j);
+  return text;
 }
 
 }  // namespace gradeline

@@ -1,15 +1,19 @@
-// The JSON form of a solve result. Keys are SI with the unit in the key name; other tools rely
-// on the keys of docs/json.md. Values that are not defined (the head of an unsupplied node) are
+// The JSON form of a solve result (docs/json.md). Keys are SI with the unit in the key name;
+// other tools rely on them. Values that are not defined (the head of an unsupplied node) are
 // written as null.
 #pragma once
 
-#include <nlohmann/json.hpp>
+#include <string>
 
 #include "gradeline/network.h"
 #include "gradeline/solve_summary.h"
+#include "io/json_stream.h"
 
 namespace gradeline {
 
-nlohmann::json result_to_json(const Network& network, const SolveResult& result);
+// Writes the result object {"summary", "nodes", "links"} to `json`.
+void write_result_json(const Network& network, const SolveResult& result, JsonStream* json);
+
+std::string result_json_text(const Network& network, const SolveResult& result);
 
 }  // namespace gradeline

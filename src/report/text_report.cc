@@ -74,30 +74,44 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
   const DisplayUnit pres = display_pressure(net.units);
   const DisplayUnit vel = display_velocity(net.units);
 
+  // Each kind of warning lists its first kMaxListed elements, then a count of the rest.
+  constexpr std::size_t kMaxListed = 20;
   std::string warnings;
+  std::size_t unsupplied = 0, negative = 0, fast = 0, check_closed = 0;
+  auto listed = [&](std::size_t* count) { return ++*count <= kMaxListed; };
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
     const NodeState& ns = r.nodes[n];
     if (net.nodes[n].is_fixed_head()) continue;
     if (!ns.supplied) {
-      appendf(&warnings, "  ! node %s has no open path to a source (unsupplied)\n",
-              net.nodes[n].id.c_str());
+      if (listed(&unsupplied))
+        appendf(&warnings, "  ! node %s has no open path to a source (unsupplied)\n",
+                net.nodes[n].id.c_str());
     } else if (ns.pressure_m < 0.0) {
-      appendf(&warnings, "  ! node %s has NEGATIVE pressure %.2f %s (%.2f %s head)\n",
-              net.nodes[n].id.c_str(), ns.pressure_pa * pres.per_si, pres.name,
-              ns.pressure_m * len.per_si, len.name);
+      if (listed(&negative))
+        appendf(&warnings, "  ! node %s has NEGATIVE pressure %.2f %s (%.2f %s head)\n",
+                net.nodes[n].id.c_str(), ns.pressure_pa * pres.per_si, pres.name,
+                ns.pressure_m * len.per_si, len.name);
     }
   }
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
     const LinkState& ls = r.links[k];
-    if (std::abs(ls.velocity_ms) > kHighVelocity_ms) {
+    if (std::abs(ls.velocity_ms) > kHighVelocity_ms && listed(&fast)) {
       appendf(&warnings, "  ! pipe %s velocity %.2f %s is above %.1f %s\n", net.pipes[k].id.c_str(),
               std::abs(ls.velocity_ms) * vel.per_si, vel.name, kHighVelocity_ms * vel.per_si,
               vel.name);
     }
-    if (ls.closed_by_check_valve) {
+    if (ls.closed_by_check_valve && listed(&check_closed)) {
       appendf(&warnings, "  - check valve on pipe %s is closed against reverse flow\n",
               net.pipes[k].id.c_str());
     }
+  }
+  const std::pair<std::size_t, const char*> more[] = {
+      {unsupplied, "unsupplied nodes"},
+      {negative, "nodes with negative pressure"},
+      {fast, "pipes above the velocity limit"},
+      {check_closed, "closed check valves"}};
+  for (const auto& [count, what] : more) {
+    if (count > kMaxListed) appendf(&warnings, "  ... %zu %s in all\n", count, what);
   }
   if (!warnings.empty()) out += "\nwarnings\n" + warnings;
 

@@ -1,0 +1,96 @@
+#include "io/json_stream.h"
+
+#include <charconv>
+#include <cmath>
+#include <cstdio>
+
+namespace gradeline {
+
+void JsonStream::separate() {
+  if (after_key_) {
+    after_key_ = false;
+    return;
+  }
+  if (!first_) *out_ += ',';
+  if (depth_ > 0) {
+    *out_ += '\n';
+    out_->append(static_cast<std::size_t>(depth_), ' ');
+  }
+  first_ = false;
+}
+
+void JsonStream::open(char c) {
+  separate();
+  *out_ += c;
+  ++depth_;
+  first_ = true;
+}
+
+void JsonStream::close(char c) {
+  --depth_;
+  if (!first_) {
+    *out_ += '\n';
+    out_->append(static_cast<std::size_t>(depth_), ' ');
+  }
+  *out_ += c;
+  first_ = false;
+  if (depth_ == 0) *out_ += '\n';
+}
+
+void JsonStream::key(std::string_view k) {
+  separate();
+  string(k);
+  *out_ += ": ";
+  after_key_ = true;
+}
+
+void JsonStream::value(double v) {
+  separate();
+  if (!std::isfinite(v)) {
+    *out_ += "null";
+    return;
+  }
+  char buffer[32];
+  auto [end, ec] = std::to_chars(buffer, buffer + sizeof buffer, v);
+  out_->append(buffer, end);
+}
+
+void JsonStream::value(long long v) {
+  separate();
+  *out_ += std::to_string(v);
+}
+
+void JsonStream::value(bool v) {
+  separate();
+  *out_ += v ? "true" : "false";
+}
+
+void JsonStream::value(std::string_view v) {
+  separate();
+  string(v);
+}
+
+void JsonStream::null() {
+  separate();
+  *out_ += "null";
+}
+
+void JsonStream::string(std::string_view s) {
+  *out_ += '"';
+  for (char c : s) {
+    unsigned char u = static_cast<unsigned char>(c);
+    if (c == '"' || c == '\\') {
+      *out_ += '\\';
+      *out_ += c;
+    } else if (u < 0x20) {
+      char escape[8];
+      std::snprintf(escape, sizeof escape, "\\u%04x", u);
+      *out_ += escape;
+    } else {
+      *out_ += c;
+    }
+  }
+  *out_ += '"';
+}
+
+}  // namespace gradeline
