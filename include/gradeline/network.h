@@ -33,6 +33,7 @@ struct Node {
   NodeKind kind = NodeKind::kJunction;
   double elevation_m = 0.0;  // ground / pipe invert reference for pressure
   double demand_m3s = 0.0;   // base demand, positive out of the network
+  std::string demand_category;  // empty: uncategorised
   double head_m = 0.0;       // fixed hydraulic grade line, reservoirs only
   std::optional<Point> at;
   SourceLocation where;
@@ -73,6 +74,28 @@ struct Fluid {
   std::optional<double> temperature_c;    // set when given by temperature
 };
 
+// A demand case: every base demand scaled by `factor` (or by its category's factor), plus
+// extra draws at named nodes (for example a fire flow).
+struct DemandCase {
+  std::string name;
+  double factor = 1.0;
+  std::vector<std::pair<std::string, double>> category_factors;
+  std::vector<std::pair<std::size_t, double>> draws_m3s;  // node index, flow
+  SourceLocation where;
+};
+
+// Design criteria. Pressures are held as pressure heads of the fluid (m).
+struct Criteria {
+  std::optional<double> min_pressure_m;
+  std::optional<double> max_pressure_m;
+  std::optional<double> max_velocity_ms;
+};
+
+struct CaseCriteria {
+  std::string case_name;
+  Criteria criteria;  // fields set here override the network-wide ones for that case
+};
+
 struct Network {
   std::string title;
   UnitSystem units = UnitSystem::kSI;
@@ -80,6 +103,9 @@ struct Network {
   Fluid fluid;
   std::vector<Node> nodes;
   std::vector<Pipe> pipes;
+  std::vector<DemandCase> cases;
+  Criteria limits;
+  std::vector<CaseCriteria> case_limits;
 
   std::optional<std::size_t> find_node(const std::string& id) const;
   std::optional<std::size_t> find_pipe(const std::string& id) const;

@@ -9,6 +9,7 @@
 #include <sstream>
 
 #include "io/lexer.h"
+#include "io/element_reader.h"
 #include "io/statement_options.h"
 #include "model/water.h"
 
@@ -17,36 +18,19 @@ namespace {
 
 namespace fs = std::filesystem;
 
-// Bounds that no real water main reaches; a value outside is a typing or unit error.
-const Range kLengthRange{0.0, 1e6, false, "1000 km"};
-const Range kDiameterRange{0.0, 20.0, false, "20 m"};
-const Range kRoughnessRange{0.0, 1.0, true, "1 m"};
-const Range kElevationRange{-1e4, 1e4, true, "10000 m"};
-const Range kDemandRange{-100.0, 100.0, true, "100 m3/s"};
-const Range kMinorRange{0.0, 1e5, true, "100000"};
-const Range kCfactorRange{0.0, 300.0, false, "300"};
 const Range kTemperatureRange{kWaterMinTemperature_c, kWaterMaxTemperature_c, true, "40 C"};
 const Range kViscosityRange{0.0, 1e-2, false, "0.01 m2/s"};
 const Range kDensityRange{0.0, 2e4, false, "20000 kg/m3"};
-const Range kPressureRange{-1e5, 1e8, true, "100 MPa"};
 const Range kHwCoefficientRange{0.0, 100.0, false, "100"};
 const Range kHwExponentRange{0.0, 10.0, false, "10"};
 
-const std::vector<std::string> kKeywords = {"title", "units", "headloss", "fluid",   "reservoir",
-                                            "node",  "pipe",  "defaults", "include"};
-
-struct PendingPipe {
-  Pipe pipe;
-  bool roughness_given = false;  // given, even if its value was refused
-  bool cfactor_given = false;
-  std::string from_id;
-  std::string to_id;
-};
+const std::vector<std::string> kKeywords = {"title", "units",    "headloss", "fluid", "reservoir",
+                                            "node",  "pipe",     "defaults", "include", "case",
+                                            "limit"};
 
 struct PendingReservoir {
   std::size_t node = 0;
-  double pressure = 0.0;
-  bool is_head = false;
+  PendingPressure pressure;
 };
 
 class NetworkParser {
@@ -66,9 +50,7 @@ class NetworkParser {
   void node(const Statement& s, const std::string& file);
   void pipe(const Statement& s, const std::string& file);
   void include(const Statement& s, const std::string& file, int depth);
-  bool element_id(const Statement& s, const std::string& file, std::size_t count,
-                  const char* shape);
-  std::optional<Point> coordinates(StatementOptions& o);
+  ReadContext context(const std::string& file) { return {file, net_.units, &diagnostics_}; }
   bool claim_node_id(const std::string& id, const SourceLocation& where);
   void error(const std::string& file, int line, std::string message) {
     diagnostics_.error(file, line, std::move(message));
@@ -76,14 +58,14 @@ class NetworkParser {
 
   Diagnostics diagnostics_;
   Network net_;
-  std::vector<PendingPipe> pipes_;
+  std::vector<PipeRead> pipes_;
   std::vector<PendingReservoir> pending_reservoirs_;
+  std::vector<CaseRead> cases_;
+  std::vector<LimitRead> limits_;
   std::vector<std::string> include_stack_;
   bool units_locked_ = false;
   bool seen_units_ = false;
-  std::optional<double> default_roughness_m_;
-  std::optional<double> default_cfactor_;
-  std::optional<double> default_minor_;
+  PipeDefaults defaults_;
   std::optional<double> fluid_density_;
   std::optional<double> fluid_viscosity_;
   std::string last_file_;
@@ -151,6 +133,12 @@ void NetworkParser::statement(const Statement& s, const std::string& file, int d
     pipe(s, file);
   } else if (k == "include") {
     include(s, file, depth);
+  } else if (k == "case") {
+    units_locked_ = true;
+    if (auto c = read_case(s, context(file))) cases_.push_back(std::move(*c));
+  } else if (k == "limit") {
+    units_locked_ = true;
+    if (auto l = read_limit(s, context(file))) limits_.push_back(std::move(*l));
   } else {
     std::string message = "unknown statement '" + k + "'";
     std::string near = nearest_word(k, kKeywords);
@@ -230,42 +218,9 @@ void NetworkParser::defaults(const Statement& s, const std::string& file) {
   StatementOptions o(s, {"roughness", "cfactor", "minor"}, file, net_.units, &diagnostics_);
   if (!s.positional.empty()) o.error("defaults takes only key=value pairs");
   if (auto v = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange))
-    default_roughness_m_ = v;
-  if (auto v = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange)) default_cfactor_ = v;
-  if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) default_minor_ = v;
-}
-
-bool NetworkParser::element_id(const Statement& s, const std::string& file, std::size_t count,
-                               const char* shape) {
-  if (s.positional.size() < count) {
-    error(file, s.line, s.keyword + " needs " + shape);
-    return false;
-  }
-  if (s.positional.size() > count) {
-    error(file, s.line, "too many fields for " + s.keyword + ": '" + s.positional[count] + "'");
-    return false;
-  }
-  for (const std::string& id : s.positional) {
-    if (!is_valid_id(id)) {
-      error(file, s.line,
-            "invalid ID '" + id + "': an ID has 1 to 64 characters and no space, '#', '=' or ','");
-      return false;
-    }
-  }
-  return true;
-}
-
-std::optional<Point> NetworkParser::coordinates(StatementOptions& o) {
-  const std::string* at = o.find("at");
-  if (at == nullptr) return std::nullopt;
-  std::size_t comma = at->find(',');
-  Point p;
-  if (comma == std::string::npos || !parse_number(at->substr(0, comma), &p.x) ||
-      !parse_number(at->substr(comma + 1), &p.y)) {
-    o.error("at must be X,Y with two numbers, got '" + *at + "'");
-    return std::nullopt;
-  }
-  return p;
+    defaults_.roughness_m = v;
+  if (auto v = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange)) defaults_.cfactor = v;
+  if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) defaults_.minor_k = v;
 }
 
 bool NetworkParser::claim_node_id(const std::string& id, const SourceLocation& where) {
@@ -281,87 +236,21 @@ bool NetworkParser::claim_node_id(const std::string& id, const SourceLocation& w
 
 void NetworkParser::reservoir(const Statement& s, const std::string& file) {
   units_locked_ = true;
-  StatementOptions o(s, {"head", "elevation", "pressure", "at"}, file, net_.units, &diagnostics_);
-  if (!element_id(s, file, 1, "an ID")) return;
-  Node n;
-  n.id = s.positional[0];
-  n.kind = NodeKind::kReservoir;
-  n.where = {file, s.line};
-  n.at = coordinates(o);
-  std::optional<double> head = o.quantity("head", Dimension::kLength, kElevationRange);
-  std::optional<double> elevation = o.quantity("elevation", Dimension::kLength, kElevationRange);
-  std::optional<Quantity> pressure;
-  if (o.has("pressure")) {
-    pressure = o.raw_quantity("pressure", Dimension::kPressure);
-    if (o.has("head")) o.error("reservoir '" + n.id + "': give head= or pressure=, not both");
-    if (!o.has("elevation")) o.error("reservoir '" + n.id + "': pressure= needs elevation=");
-  } else if (!o.has("head")) {
-    o.error("reservoir '" + n.id + "': missing required key 'head'");
-  }
-  if (!claim_node_id(n.id, n.where)) return;
-  if (head) n.head_m = *head;
-  n.elevation_m = elevation.value_or(head.value_or(0.0));
-  std::size_t index = net_.add_node(n);
-  if (pressure && elevation) {
-    pending_reservoirs_.push_back({index, pressure->value, pressure->is_head});
-  }
+  std::optional<ReservoirRead> r = read_reservoir(s, context(file));
+  if (!r || !claim_node_id(r->node.id, r->node.where)) return;
+  std::size_t index = net_.add_node(std::move(r->node));
+  if (r->pressure) pending_reservoirs_.push_back({index, *r->pressure});
 }
 
 void NetworkParser::node(const Statement& s, const std::string& file) {
   units_locked_ = true;
-  StatementOptions o(s, {"elevation", "demand", "at"}, file, net_.units, &diagnostics_);
-  if (!element_id(s, file, 1, "an ID")) return;
-  Node n;
-  n.id = s.positional[0];
-  n.where = {file, s.line};
-  n.at = coordinates(o);
-  if (!o.has("elevation")) o.error("node '" + n.id + "': missing required key 'elevation'");
-  if (auto z = o.quantity("elevation", Dimension::kLength, kElevationRange)) n.elevation_m = *z;
-  if (auto q = o.quantity("demand", Dimension::kFlow, kDemandRange)) n.demand_m3s = *q;
-  if (claim_node_id(n.id, n.where)) net_.add_node(n);
+  std::optional<Node> n = read_junction(s, context(file));
+  if (n && claim_node_id(n->id, n->where)) net_.add_node(std::move(*n));
 }
 
 void NetworkParser::pipe(const Statement& s, const std::string& file) {
   units_locked_ = true;
-  StatementOptions o(s,
-                     {"length", "diameter", "roughness", "cfactor", "minor", "status", "check"},
-                     file, net_.units, &diagnostics_);
-  if (!element_id(s, file, 3, "ID FROM TO")) return;
-  PendingPipe p;
-  p.pipe.id = s.positional[0];
-  p.from_id = s.positional[1];
-  p.to_id = s.positional[2];
-  p.pipe.where = {file, s.line};
-  for (const char* key : {"length", "diameter"}) {
-    if (!o.has(key)) o.error("pipe '" + p.pipe.id + "': missing required key '" + key + "'");
-  }
-  if (auto v = o.quantity("length", Dimension::kLength, kLengthRange)) p.pipe.length_m = *v;
-  if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) p.pipe.diameter_m = *v;
-  p.roughness_given = o.has("roughness");
-  p.cfactor_given = o.has("cfactor");
-  p.pipe.roughness_m = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange);
-  p.pipe.cfactor = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange);
-  if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) p.pipe.minor_k = *v;
-  if (const std::string* status = o.find("status")) {
-    if (*status == "open") {
-      p.pipe.status = LinkStatus::kOpen;
-    } else if (*status == "closed") {
-      p.pipe.status = LinkStatus::kClosed;
-    } else {
-      o.error("status must be 'open' or 'closed', got '" + *status + "'");
-    }
-  }
-  if (const std::string* check = o.find("check")) {
-    if (*check == "yes" || *check == "no") {
-      p.pipe.check_valve = *check == "yes";
-    } else {
-      o.error("check must be 'yes' or 'no', got '" + *check + "'");
-    }
-  }
-  if (p.from_id == p.to_id) {
-    o.error("pipe '" + p.pipe.id + "' connects node '" + p.from_id + "' to itself");
-  }
-  pipes_.push_back(std::move(p));
+  if (auto p = read_pipe(s, context(file))) pipes_.push_back(std::move(*p));
 }
 
 void NetworkParser::include(const Statement& s, const std::string& file, int depth) {
@@ -390,56 +279,27 @@ ParseResult NetworkParser::finish() {
   }
   for (const PendingReservoir& r : pending_reservoirs_) {
     Node& n = net_.nodes[r.node];
-    const double head = r.is_head ? r.pressure : r.pressure / (fluid.density_kgm3 * kGravity_ms2);
-    n.head_m = n.elevation_m + head;
+    n.head_m = n.elevation_m + r.pressure.to_head_m(fluid.density_kgm3);
   }
 
   net_.pipes.reserve(pipes_.size());
-  for (PendingPipe& p : pipes_) {
+  for (PipeRead& p : pipes_) {
     if (diagnostics_.full()) break;
-    const SourceLocation& w = p.pipe.where;
-    if (auto existing = net_.find_pipe(p.pipe.id)) {
-      const SourceLocation& first = net_.pipes[*existing].where;
-      error(w.file, w.line,
-            "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file + ":" +
-                std::to_string(first.line) + ")");
+    add_pipe_to_network(std::move(p), defaults_, &net_, &diagnostics_);
+  }
+  for (CaseRead& c : cases_) {
+    const DemandCase& dc = c.demand_case;
+    auto same = std::find_if(net_.cases.begin(), net_.cases.end(),
+                             [&](const DemandCase& x) { return x.name == dc.name; });
+    if (same != net_.cases.end()) {
+      error(dc.where.file, dc.where.line,
+            "duplicate case '" + dc.name + "' (first defined at " + same->where.file + ":" +
+                std::to_string(same->where.line) + ")");
       continue;
     }
-    bool ends_ok = true;
-    for (const std::string* end : {&p.from_id, &p.to_id}) {
-      if (!net_.find_node(*end)) {
-        std::string message = "pipe '" + p.pipe.id + "' refers to unknown node '" + *end + "'";
-        error(w.file, w.line, message);
-        ends_ok = false;
-      }
-    }
-    if (!ends_ok) continue;
-    p.pipe.from = *net_.find_node(p.from_id);
-    p.pipe.to = *net_.find_node(p.to_id);
-    if (!p.roughness_given) p.pipe.roughness_m = default_roughness_m_;
-    if (!p.cfactor_given) p.pipe.cfactor = default_cfactor_;
-    if (p.pipe.minor_k == 0.0 && default_minor_) p.pipe.minor_k = *default_minor_;
-    if (net_.headloss.law == HeadlossLaw::kDarcyWeisbach && !p.pipe.roughness_m &&
-        !p.roughness_given) {
-      error(w.file, w.line,
-            "pipe '" + p.pipe.id +
-                "': missing roughness (darcy-weisbach needs roughness= or 'defaults roughness=')");
-    }
-    if (net_.headloss.law == HeadlossLaw::kHazenWilliams && !p.pipe.cfactor &&
-        !p.cfactor_given) {
-      error(w.file, w.line,
-            "pipe '" + p.pipe.id +
-                "': missing cfactor (hazen-williams needs cfactor= or 'defaults cfactor=')");
-    }
-    if (p.pipe.roughness_m && p.pipe.diameter_m > 0.0 &&
-        *p.pipe.roughness_m >= 0.5 * p.pipe.diameter_m) {
-      std::ostringstream m;
-      m << "pipe '" << p.pipe.id << "': roughness " << *p.pipe.roughness_m * 1e3
-        << " mm is not smaller than the pipe radius " << p.pipe.diameter_m * 500.0 << " mm";
-      error(w.file, w.line, m.str());
-    }
-    net_.add_pipe(std::move(p.pipe));
+    if (resolve_case(&c, net_, &diagnostics_)) net_.cases.push_back(std::move(c.demand_case));
   }
+  for (const LimitRead& l : limits_) apply_limit(l, &net_, &diagnostics_);
 
   bool has_fixed_head = std::any_of(net_.nodes.begin(), net_.nodes.end(),
                                     [](const Node& n) { return n.is_fixed_head(); });

@@ -22,12 +22,22 @@ struct Range {
 
 class StatementOptions {
  public:
-  // Reports every key of `statement` that is not in `allowed`, and every repeated key.
+  // Reports every key of `statement` that is not in `allowed`, and every repeated key other
+  // than those in `repeatable`. An allowed entry ending in '.' admits any key with that prefix
+  // ("factor." admits "factor.residential").
   StatementOptions(const Statement& statement, const std::vector<std::string>& allowed,
-                   const std::string& file, UnitSystem units, Diagnostics* diagnostics);
+                   const std::string& file, UnitSystem units, Diagnostics* diagnostics,
+                   const std::vector<std::string>& repeatable = {});
 
   bool has(const std::string& key) const { return find(key) != nullptr; }
   const std::string* find(const std::string& key) const;
+  // Every value of a repeatable key, in file order.
+  std::vector<std::string> all(const std::string& key) const;
+  // (suffix, value) of every key that starts with `prefix`.
+  std::vector<std::pair<std::string, std::string>> with_prefix(const std::string& prefix) const;
+  // Parses `text` (not necessarily a key's whole value) as a quantity; reports errors under `key`.
+  std::optional<double> parse(const std::string& key, const std::string& text, Dimension dimension,
+                              const Range& range);
 
   // The value as a quantity of `dimension`, in SI; nullopt (with an error reported) when it is
   // missing, malformed or outside `range`.

@@ -1,0 +1,331 @@
+#include "io/element_reader.h"
+
+#include <algorithm>
+#include <sstream>
+
+namespace gradeline {
+
+const Range kLengthRange{0.0, 1e6, false, "1000 km"};
+const Range kDiameterRange{0.0, 20.0, false, "20 m"};
+const Range kRoughnessRange{0.0, 1.0, true, "1 m"};
+const Range kElevationRange{-1e4, 1e4, true, "10000 m"};
+const Range kDemandRange{-100.0, 100.0, true, "100 m3/s"};
+const Range kMinorRange{0.0, 1e5, true, "100000"};
+const Range kCfactorRange{0.0, 300.0, false, "300"};
+const Range kFactorRange{0.0, 100.0, true, "100"};
+const Range kVelocityRange{0.0, 100.0, false, "100 m/s"};
+
+namespace {
+
+std::optional<Point> coordinates(StatementOptions& o) {
+  const std::string* at = o.find("at");
+  if (at == nullptr) return std::nullopt;
+  std::size_t comma = at->find(',');
+  Point p;
+  if (comma == std::string::npos || !parse_number(at->substr(0, comma), &p.x) ||
+      !parse_number(at->substr(comma + 1), &p.y)) {
+    o.error("at must be X,Y with two numbers, got '" + *at + "'");
+    return std::nullopt;
+  }
+  return p;
+}
+
+void error(Diagnostics* d, const SourceLocation& w, std::string message) {
+  d->error(w.file, w.line, std::move(message));
+}
+
+}  // namespace
+
+bool read_ids(const Statement& s, std::size_t count, const char* shape, const ReadContext& c) {
+  if (s.positional.size() < count) {
+    c.diagnostics->error(c.file, s.line, s.keyword + " needs " + shape);
+    return false;
+  }
+  if (s.positional.size() > count) {
+    c.diagnostics->error(c.file, s.line,
+                         "too many fields for " + s.keyword + ": '" + s.positional[count] + "'");
+    return false;
+  }
+  for (const std::string& id : s.positional) {
+    if (!is_valid_id(id)) {
+      c.diagnostics->error(
+          c.file, s.line,
+          "invalid ID '" + id + "': an ID has 1 to 64 characters and no space, '#', '=' or ','");
+      return false;
+    }
+  }
+  return true;
+}
+
+std::optional<ReservoirRead> read_reservoir(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, {"head", "elevation", "pressure", "at"}, c.file, c.units, c.diagnostics);
+  if (!read_ids(s, 1, "an ID", c)) return std::nullopt;
+  ReservoirRead r;
+  Node& n = r.node;
+  n.id = s.positional[0];
+  n.kind = NodeKind::kReservoir;
+  n.where = {c.file, s.line};
+  n.at = coordinates(o);
+  std::optional<double> head = o.quantity("head", Dimension::kLength, kElevationRange);
+  std::optional<double> elevation = o.quantity("elevation", Dimension::kLength, kElevationRange);
+  if (o.has("pressure")) {
+    if (auto q = o.raw_quantity("pressure", Dimension::kPressure)) {
+      r.pressure = PendingPressure{q->value, q->is_head};
+    }
+    if (o.has("head")) o.error("reservoir '" + n.id + "': give head= or pressure=, not both");
+    if (!o.has("elevation")) o.error("reservoir '" + n.id + "': pressure= needs elevation=");
+  } else if (!o.has("head")) {
+    o.error("reservoir '" + n.id + "': missing required key 'head'");
+  }
+  if (head) n.head_m = *head;
+  n.elevation_m = elevation.value_or(head.value_or(0.0));
+  if (!elevation) r.pressure.reset();
+  return r;
+}
+
+const std::vector<std::string> kJunctionKeys = {"elevation", "demand", "at"};
+
+void read_junction_keys(StatementOptions& o, Node* n) {
+  if (o.has("at")) n->at = coordinates(o);
+  if (auto z = o.quantity("elevation", Dimension::kLength, kElevationRange)) n->elevation_m = *z;
+  if (const std::string* demand = o.find("demand")) {
+    // demand=FLOW or demand=FLOW:CATEGORY
+    std::string text = *demand;
+    std::size_t colon = text.find(':');
+    std::string category;
+    if (colon != std::string::npos) {
+      category = text.substr(colon + 1);
+      text = text.substr(0, colon);
+      if (category.empty() || !is_valid_id(category)) {
+        o.error("demand category must be a name after ':', got '" + *demand + "'");
+        return;
+      }
+    }
+    if (auto q = o.parse("demand", text, Dimension::kFlow, kDemandRange)) {
+      n->demand_m3s = *q;
+      n->demand_category = category;
+    }
+  }
+}
+
+std::optional<Node> read_junction(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, kJunctionKeys, c.file, c.units, c.diagnostics);
+  if (!read_ids(s, 1, "an ID", c)) return std::nullopt;
+  Node n;
+  n.id = s.positional[0];
+  n.where = {c.file, s.line};
+  if (!o.has("elevation")) o.error("node '" + n.id + "': missing required key 'elevation'");
+  read_junction_keys(o, &n);
+  return n;
+}
+
+const std::vector<std::string> kPipeKeys = {"length", "diameter", "roughness", "cfactor",
+                                            "minor",  "status",   "check"};
+
+void read_pipe_keys(StatementOptions& o, PipeRead* p) {
+  if (auto v = o.quantity("length", Dimension::kLength, kLengthRange)) p->pipe.length_m = *v;
+  if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) p->pipe.diameter_m = *v;
+  if (o.has("roughness")) {
+    p->roughness_given = true;
+    p->pipe.roughness_m = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange);
+  }
+  if (o.has("cfactor")) {
+    p->cfactor_given = true;
+    p->pipe.cfactor = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange);
+  }
+  if (o.has("minor")) {
+    p->minor_given = true;
+    if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) p->pipe.minor_k = *v;
+  }
+  if (const std::string* status = o.find("status")) {
+    if (*status == "open") {
+      p->pipe.status = LinkStatus::kOpen;
+    } else if (*status == "closed") {
+      p->pipe.status = LinkStatus::kClosed;
+    } else {
+      o.error("status must be 'open' or 'closed', got '" + *status + "'");
+    }
+  }
+  if (const std::string* check = o.find("check")) {
+    if (*check == "yes" || *check == "no") {
+      p->pipe.check_valve = *check == "yes";
+    } else {
+      o.error("check must be 'yes' or 'no', got '" + *check + "'");
+    }
+  }
+}
+
+std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, kPipeKeys, c.file, c.units, c.diagnostics);
+  if (!read_ids(s, 3, "ID FROM TO", c)) return std::nullopt;
+  PipeRead p;
+  p.pipe.id = s.positional[0];
+  p.from_id = s.positional[1];
+  p.to_id = s.positional[2];
+  p.pipe.where = {c.file, s.line};
+  for (const char* key : {"length", "diameter"}) {
+    if (!o.has(key)) o.error("pipe '" + p.pipe.id + "': missing required key '" + key + "'");
+  }
+  read_pipe_keys(o, &p);
+  if (p.from_id == p.to_id) {
+    o.error("pipe '" + p.pipe.id + "' connects node '" + p.from_id + "' to itself");
+  }
+  return p;
+}
+
+bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostics* d) {
+  bool ok = true;
+  if (law == HeadlossLaw::kDarcyWeisbach && !p.roughness_m && !law_value_given) {
+    error(d, p.where,
+          "pipe '" + p.id +
+              "': missing roughness (darcy-weisbach needs roughness= or 'defaults roughness=')");
+    ok = false;
+  }
+  if (law == HeadlossLaw::kHazenWilliams && !p.cfactor && !law_value_given) {
+    error(d, p.where,
+          "pipe '" + p.id + "': missing cfactor (hazen-williams needs cfactor= or 'defaults cfactor=')");
+    ok = false;
+  }
+  if (p.roughness_m && p.diameter_m > 0.0 && *p.roughness_m >= 0.5 * p.diameter_m) {
+    std::ostringstream m;
+    m << "pipe '" << p.id << "': roughness " << *p.roughness_m * 1e3
+      << " mm is not smaller than the pipe radius " << p.diameter_m * 500.0 << " mm";
+    error(d, p.where, m.str());
+    ok = false;
+  }
+  return ok;
+}
+
+bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net, Diagnostics* d) {
+  const SourceLocation& w = p.pipe.where;
+  if (auto existing = net->find_pipe(p.pipe.id)) {
+    const SourceLocation& first = net->pipes[*existing].where;
+    error(d, w,
+          "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file + ":" +
+              std::to_string(first.line) + ")");
+    return false;
+  }
+  bool ends_ok = true;
+  for (const std::string* end : {&p.from_id, &p.to_id}) {
+    if (!net->find_node(*end)) {
+      error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + *end + "'");
+      ends_ok = false;
+    }
+  }
+  if (!ends_ok) return false;
+  p.pipe.from = *net->find_node(p.from_id);
+  p.pipe.to = *net->find_node(p.to_id);
+  if (!p.roughness_given) p.pipe.roughness_m = defaults.roughness_m;
+  if (!p.cfactor_given) p.pipe.cfactor = defaults.cfactor;
+  if (!p.minor_given && defaults.minor_k) p.pipe.minor_k = *defaults.minor_k;
+  const bool given = net->headloss.law == HeadlossLaw::kDarcyWeisbach ? p.roughness_given
+                                                                      : p.cfactor_given;
+  bool ok = check_pipe(p.pipe, net->headloss.law, given, d);
+  net->add_pipe(std::move(p.pipe));
+  return ok;
+}
+
+std::optional<CaseRead> read_case(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, {"factor", "factor.", "draw"}, c.file, c.units, c.diagnostics, {"draw"});
+  if (!read_ids(s, 1, "a name", c)) return std::nullopt;
+  CaseRead r;
+  r.demand_case.name = s.positional[0];
+  r.demand_case.where = {c.file, s.line};
+  if (auto f = o.quantity("factor", Dimension::kDimensionless, kFactorRange)) {
+    r.demand_case.factor = *f;
+  }
+  for (const auto& [category, text] : o.with_prefix("factor.")) {
+    if (auto f = o.parse("factor." + category, text, Dimension::kDimensionless, kFactorRange)) {
+      r.demand_case.category_factors.emplace_back(category, *f);
+    }
+  }
+  for (const std::string& draw : o.all("draw")) {
+    std::size_t colon = draw.rfind(':');
+    if (colon == std::string::npos || colon == 0) {
+      o.error("draw must be NODE:FLOW, got '" + draw + "'");
+      continue;
+    }
+    if (auto q = o.parse("draw", draw.substr(colon + 1), Dimension::kFlow, kDemandRange)) {
+      r.draw_ids.emplace_back(draw.substr(0, colon), *q);
+    }
+  }
+  return r;
+}
+
+bool resolve_case(CaseRead* r, const Network& net, Diagnostics* d) {
+  DemandCase& dc = r->demand_case;
+  bool ok = true;
+  for (const auto& [id, flow] : r->draw_ids) {
+    auto n = net.find_node(id);
+    if (!n) {
+      error(d, dc.where, "case '" + dc.name + "': draw at unknown node '" + id + "'");
+      ok = false;
+    } else if (net.nodes[*n].is_fixed_head()) {
+      error(d, dc.where, "case '" + dc.name + "': draw at reservoir '" + id + "'");
+      ok = false;
+    } else {
+      dc.draws_m3s.emplace_back(*n, flow);
+    }
+  }
+  for (const auto& [category, factor] : dc.category_factors) {
+    bool used = std::any_of(net.nodes.begin(), net.nodes.end(),
+                            [&](const Node& n) { return n.demand_category == category; });
+    if (!used) {
+      error(d, dc.where,
+            "case '" + dc.name + "': no node has demand category '" + category + "'");
+      ok = false;
+    }
+  }
+  return ok;
+}
+
+std::optional<LimitRead> read_limit(const Statement& s, const ReadContext& c) {
+  if (s.positional.size() != 1 || (s.positional[0] != "pressure" && s.positional[0] != "velocity")) {
+    c.diagnostics->error(c.file, s.line, "limit needs one field: pressure or velocity");
+    return std::nullopt;
+  }
+  LimitRead r;
+  r.where = {c.file, s.line};
+  if (s.positional[0] == "pressure") {
+    StatementOptions o(s, {"min", "max", "case"}, c.file, c.units, c.diagnostics);
+    for (const char* key : {"min", "max"}) {
+      if (auto q = o.raw_quantity(key, Dimension::kPressure)) {
+        (key[1] == 'i' ? r.min_pressure : r.max_pressure) = PendingPressure{q->value, q->is_head};
+      }
+    }
+    if (!o.has("min") && !o.has("max")) o.error("limit pressure needs min= or max=");
+    if (const std::string* name = o.find("case")) r.case_name = *name;
+  } else {
+    StatementOptions o(s, {"max", "case"}, c.file, c.units, c.diagnostics);
+    r.max_velocity_ms = o.quantity("max", Dimension::kVelocity, kVelocityRange);
+    if (!o.has("max")) o.error("limit velocity needs max=");
+    if (const std::string* name = o.find("case")) r.case_name = *name;
+  }
+  return r;
+}
+
+bool apply_limit(const LimitRead& limit, Network* net, Diagnostics* d) {
+  Criteria* target = &net->limits;
+  if (!limit.case_name.empty()) {
+    bool known = std::any_of(net->cases.begin(), net->cases.end(),
+                             [&](const DemandCase& c) { return c.name == limit.case_name; });
+    if (!known) {
+      error(d, limit.where, "limit for unknown case '" + limit.case_name + "'");
+      return false;
+    }
+    auto it = std::find_if(net->case_limits.begin(), net->case_limits.end(),
+                           [&](const CaseCriteria& c) { return c.case_name == limit.case_name; });
+    if (it == net->case_limits.end()) {
+      net->case_limits.push_back({limit.case_name, {}});
+      it = net->case_limits.end() - 1;
+    }
+    target = &it->criteria;
+  }
+  const double rho = net->fluid.density_kgm3;
+  if (limit.min_pressure) target->min_pressure_m = limit.min_pressure->to_head_m(rho);
+  if (limit.max_pressure) target->max_pressure_m = limit.max_pressure->to_head_m(rho);
+  if (limit.max_velocity_ms) target->max_velocity_ms = limit.max_velocity_ms;
+  return true;
+}
+
+}  // namespace gradeline

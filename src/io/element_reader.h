@@ -1,0 +1,100 @@
+// Reading the element statements of the network format (reservoir, node, pipe, case, limit)
+// into the model. Shared by the network parser and by change sets ("add pipe ...",
+// "modify P7 diameter=300mm"), so both accept exactly the same keys and report the same errors.
+#pragma once
+
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "gradeline/network.h"
+#include "io/diagnostics.h"
+#include "io/lexer.h"
+#include "io/statement_options.h"
+
+namespace gradeline {
+
+// Bounds that no real water system reaches; a value outside is a typing or unit error.
+extern const Range kLengthRange, kDiameterRange, kRoughnessRange, kElevationRange, kDemandRange,
+    kMinorRange, kCfactorRange, kFactorRange, kVelocityRange;
+
+struct ReadContext {
+  std::string file;
+  UnitSystem units = UnitSystem::kSI;
+  Diagnostics* diagnostics = nullptr;
+};
+
+// A pressure given in pascals waits for the fluid density before it becomes a head.
+struct PendingPressure {
+  double value = 0.0;
+  bool is_head = false;
+  double to_head_m(double density_kgm3) const {
+    return is_head ? value : value / (density_kgm3 * kGravity_ms2);
+  }
+};
+
+struct ReservoirRead {
+  Node node;
+  std::optional<PendingPressure> pressure;  // head = elevation + pressure
+};
+
+struct PipeRead {
+  Pipe pipe;
+  std::string from_id;
+  std::string to_id;
+  bool roughness_given = false;  // given, even if its value was refused
+  bool cfactor_given = false;
+  bool minor_given = false;
+};
+
+// Pipe defaults ("defaults roughness=... cfactor=... minor=...").
+struct PipeDefaults {
+  std::optional<double> roughness_m;
+  std::optional<double> cfactor;
+  std::optional<double> minor_k;
+};
+
+// Checks the count and form of the positional fields (`count` IDs).
+bool read_ids(const Statement& s, std::size_t count, const char* shape, const ReadContext& c);
+
+std::optional<ReservoirRead> read_reservoir(const Statement& s, const ReadContext& c);
+std::optional<Node> read_junction(const Statement& s, const ReadContext& c);
+std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c);
+
+// The keys a pipe statement accepts other than length and diameter requirements; used by
+// `modify`. Only the keys present are changed.
+extern const std::vector<std::string> kPipeKeys;
+void read_pipe_keys(StatementOptions& o, PipeRead* p);
+extern const std::vector<std::string> kJunctionKeys;
+void read_junction_keys(StatementOptions& o, Node* n);
+
+// Resolves the end nodes, applies defaults and checks the pipe against the head-loss law;
+// adds it to `net` when all is well. False (with errors reported) otherwise.
+bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
+                         Diagnostics* diagnostics);
+
+// Checks of a pipe that depend on more than one key: roughness against the radius, and the
+// value the head-loss law needs.
+bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostics* diagnostics);
+
+// `case NAME factor=F [factor.CATEGORY=F] [draw=NODE:FLOW]...`: the draws hold node IDs until
+// resolved by resolve_case.
+struct CaseRead {
+  DemandCase demand_case;
+  std::vector<std::pair<std::string, double>> draw_ids;
+};
+std::optional<CaseRead> read_case(const Statement& s, const ReadContext& c);
+bool resolve_case(CaseRead* read, const Network& net, Diagnostics* diagnostics);
+
+// `limit pressure min=P max=P [case=NAME]` and `limit velocity max=V [case=NAME]`.
+struct LimitRead {
+  std::string case_name;  // empty: every case
+  std::optional<PendingPressure> min_pressure, max_pressure;
+  std::optional<double> max_velocity_ms;
+  SourceLocation where;
+};
+std::optional<LimitRead> read_limit(const Statement& s, const ReadContext& c);
+// Converts pressures to heads and merges the limit into `net`; checks the case name.
+bool apply_limit(const LimitRead& limit, Network* net, Diagnostics* diagnostics);
+
+}  // namespace gradeline
