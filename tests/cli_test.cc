@@ -94,7 +94,7 @@ TEST_CASE("no solution exits 3 and prints no result") {
   auto r = run_gradeline("solve tests/networks/loop_two_sources.gln --max-iterations 1");
   CHECK(r.exit_code == 3);
   CHECK(r.out.empty());
-  CHECK(r.err.find("gradeline: error: no solution: no convergence after 1 iterations") !=
+  CHECK(r.err.find("gradeline: error: no solution for case 'base': no convergence after 1 iterations") !=
         std::string::npos);
 }
 

@@ -1,13 +1,16 @@
-// gradeline solve FILE [--json PATH]: steady-state solve with the report on stdout.
+// gradeline solve FILE [--case NAME|all] [--apply CHANGES]... [--json PATH]
+//                      [--write-network OUT] [--min-pressure P] ...
+// Steady-state solve of one or all demand cases, with the report on stdout.
 #include <chrono>
 #include <iomanip>
-#include <sstream>
 #include <memory>
 #include <ostream>
+#include <sstream>
 
 #include "cli/commands.h"
-#include "gradeline/solver.h"
+#include "io/network_writer.h"
 #include "io/result_json.h"
+#include "report/criteria_report.h"
 #include "report/text_report.h"
 
 namespace gradeline {
@@ -15,10 +18,12 @@ namespace {
 
 struct SolveArgs {
   std::string file;
+  std::vector<std::string> applies;
   std::string json_path;
+  std::string write_network;
   bool summary_only = false;
   bool timing = false;
-  int max_iterations = SolveOptions{}.max_iterations;
+  SolveFlags flags;
 };
 
 std::string timing_text(const SolveSummary& s, double parse_s) {
@@ -31,30 +36,79 @@ std::string timing_text(const SolveSummary& s, double parse_s) {
   return t.str();
 }
 
+std::string cases_json(const Network& net, const std::vector<CaseOutcome>& outcomes) {
+  std::string text;
+  JsonStream j(&text);
+  std::vector<Violation> all;
+  for (const CaseOutcome& o : outcomes) all.insert(all.end(), o.violations.begin(), o.violations.end());
+  if (outcomes.size() == 1) {
+    // One case: the core result shape, with the case named and the violations beside it.
+    write_result_json(net, outcomes[0].result, &j, [&](JsonStream* more) {
+      more->field("case", outcomes[0].demand_case.name);
+      write_violations_json(net, all, more);
+    });
+    return text;
+  }
+  j.begin_object();
+  j.key("cases");
+  j.begin_object();
+  for (const CaseOutcome& o : outcomes) {
+    j.key(o.demand_case.name);
+    write_result_json(net, o.result, &j);
+  }
+  j.end_object();
+  write_violations_json(net, all, &j);
+  j.end_object();
+  return text;
+}
+
 int run_solve(const SolveArgs& a, Streams io) {
   auto start = std::chrono::steady_clock::now();
   Network net;
-  if (!load_network(a.file, io, &net)) return kExitInput;
+  if (!load_network(a.file, io, &net) || !apply_changes(a.applies, io, &net)) return kExitInput;
   const double parse_s =
       std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
-  SolveOptions options;
-  options.max_iterations = a.max_iterations;
-  SolveResult result = solve(net, options);
-  if (!result.summary.converged()) {
-    io.err << solve_summary_text(net, result, a.file);
-    io.err << "gradeline: error: no solution: " << result.summary.message << "\n";
-    if (a.timing) io.err << timing_text(result.summary, parse_s);
-    return kExitNotSolved;
+  std::vector<std::string> inputs = a.applies;
+  inputs.push_back(a.file);
+  if (!a.write_network.empty() &&
+      !write_output(a.write_network, write_network(net), inputs, io)) {
+    return kExitInput;
   }
-  ReportOptions report;
-  report.tables = !a.summary_only;
-  io.out << solve_report_text(net, result, a.file, report);
-  if (!a.json_path.empty()) {
-    std::string text = result_json_text(net, result);
-    if (!write_output(a.json_path, text, {a.file}, io)) return kExitInput;
+  CriteriaOverride criteria;
+  std::vector<DemandCase> cases;
+  std::string why;
+  if (!a.flags.criteria(net, io, &criteria)) return kExitInput;
+  if (!select_cases(net, a.flags.case_name, &cases, &why)) {
+    io.err << "gradeline: error: " << why << "\n";
+    return kExitInput;
   }
-  if (a.timing) io.err << timing_text(result.summary, parse_s);
-  return kExitOk;
+  std::vector<CaseOutcome> outcomes;
+  for (const DemandCase& c : cases) {
+    outcomes.push_back(run_case(net, c, a.flags.options(), criteria));
+    const SolveSummary& s = outcomes.back().result.summary;
+    if (a.timing) io.err << timing_text(s, parse_s);
+    if (!s.converged()) {
+      io.err << solve_summary_text(net, outcomes.back().result, a.file, c.name);
+      io.err << "gradeline: error: no solution for case '" << c.name << "': " << s.message << "\n";
+      return kExitNotSolved;
+    }
+  }
+  bool violated = false;
+  for (const CaseOutcome& o : outcomes) {
+    ReportOptions report;
+    report.tables = !a.summary_only;
+    if (!net.cases.empty()) report.case_name = o.demand_case.name;
+    if (has_criteria(o.criteria)) {
+      report.criteria_block = criteria_line(net, o.criteria) + violations_text(net, o.violations);
+    }
+    if (outcomes.size() > 1) io.out << "\n";
+    io.out << solve_report_text(net, o.result, a.file, report);
+    violated = violated || !o.violations.empty();
+  }
+  if (!a.json_path.empty() && !write_output(a.json_path, cases_json(net, outcomes), inputs, io)) {
+    return kExitInput;
+  }
+  return violated ? kExitCriteria : kExitOk;
 }
 
 }  // namespace
@@ -64,11 +118,13 @@ CommandSpec solve_command() {
           [](CLI::App* app) -> Runner {
             auto a = std::make_shared<SolveArgs>();
             app->add_option("FILE", a->file, "network file")->required();
+            app->add_option("--apply", a->applies, "apply a change set first (repeatable, in order)");
             app->add_option("--json", a->json_path, "also write the result as JSON to PATH");
+            app->add_option("--write-network", a->write_network,
+                            "write the network, with changes applied, to OUT");
             app->add_flag("--summary", a->summary_only, "print the summary and warnings only");
             app->add_flag("--timing", a->timing, "print the time of each solver stage to stderr");
-            app->add_option("--max-iterations", a->max_iterations, "Newton iteration limit")
-                ->check(CLI::Range(1, 10000));
+            a->flags.add_to(app);
             return [a](Streams io) { return run_solve(*a, io); };
           }};
 }

@@ -3,22 +3,38 @@
 #include <ostream>
 
 #include "io/atomic_file.h"
+#include "io/change_set.h"
+#include "model/units.h"
 
 namespace gradeline {
 
 const std::vector<CommandSpec>& command_table() {
-  static const std::vector<CommandSpec> table = {check_command(), solve_command()};
+  static const std::vector<CommandSpec> table = {check_command(), solve_command(),
+                                                 compare_command()};
   return table;
 }
 
+namespace {
+void print_errors(const std::vector<Diagnostic>& errors, bool truncated, Streams io) {
+  for (const Diagnostic& d : errors) io.err << d.format() << "\n";
+  if (truncated) io.err << "gradeline: stopped after " << errors.size() << " errors\n";
+}
+}  // namespace
+
 bool load_network(const std::string& path, Streams io, Network* network) {
   ParseResult parsed = parse_network_file(path);
-  for (const Diagnostic& d : parsed.errors) io.err << d.format() << "\n";
-  if (parsed.truncated) {
-    io.err << "gradeline: stopped after " << parsed.errors.size() << " errors\n";
-  }
+  print_errors(parsed.errors, parsed.truncated, io);
   if (!parsed.ok()) return false;
   *network = std::move(parsed.network);
+  return true;
+}
+
+bool apply_changes(const std::vector<std::string>& files, Streams io, Network* network) {
+  for (const std::string& file : files) {
+    ChangeResult r = apply_change_file(file, network);
+    print_errors(r.errors, r.truncated, io);
+    if (!r.ok()) return false;
+  }
   return true;
 }
 
@@ -36,6 +52,46 @@ bool write_output(const std::string& path, const std::string& text,
     return false;
   }
   return true;
+}
+
+void SolveFlags::add_to(CLI::App* app) {
+  app->add_option("--case", case_name, "demand case to solve, or 'all' (default: the first)");
+  app->add_option("--min-pressure", min_pressure, "minimum pressure for every case, e.g. 280kPa");
+  app->add_option("--max-pressure", max_pressure, "maximum pressure for every case, e.g. 700kPa");
+  app->add_option("--max-velocity", max_velocity, "maximum pipe velocity, e.g. 2.5m/s");
+  app->add_option("--max-iterations", max_iterations, "Newton iteration limit")
+      ->check(CLI::Range(1, 10000));
+}
+
+bool SolveFlags::criteria(const Network& net, Streams io, CriteriaOverride* out) const {
+  struct Flag {
+    const char* name;
+    const std::string* text;
+    Dimension dimension;
+    std::optional<double>* target;
+  } flags[] = {{"--min-pressure", &min_pressure, Dimension::kPressure, &out->min_pressure_m},
+               {"--max-pressure", &max_pressure, Dimension::kPressure, &out->max_pressure_m},
+               {"--max-velocity", &max_velocity, Dimension::kVelocity, &out->max_velocity_ms}};
+  for (const Flag& f : flags) {
+    if (f.text->empty()) continue;
+    UnitParse p = parse_quantity(*f.text, f.dimension, net.units);
+    if (!p.ok || !(p.quantity.value > -1e9)) {
+      io.err << "gradeline: error: " << f.name << ": " << p.error << "\n";
+      return false;
+    }
+    double v = p.quantity.value;
+    if (f.dimension == Dimension::kPressure && !p.quantity.is_head) {
+      v /= net.fluid.density_kgm3 * kGravity_ms2;
+    }
+    *f.target = v;
+  }
+  return true;
+}
+
+SolveOptions SolveFlags::options() const {
+  SolveOptions o;
+  o.max_iterations = max_iterations;
+  return o;
 }
 
 }  // namespace gradeline

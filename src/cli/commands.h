@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "analysis/case_run.h"
 #include "io/parser.h"
 
 namespace gradeline {
@@ -35,12 +36,29 @@ const std::vector<CommandSpec>& command_table();
 
 CommandSpec check_command();
 CommandSpec solve_command();
+CommandSpec compare_command();
 
-// Shared by the commands: parses a network file and prints its errors. False on any error.
+// Parses a network file and prints its errors. False on any error.
 bool load_network(const std::string& path, Streams io, Network* network);
+
+// Applies change files in order, printing their errors. False on any error.
+bool apply_changes(const std::vector<std::string>& change_files, Streams io, Network* network);
 
 // Writes `text` to `path` atomically unless `path` names one of `inputs`. Prints the error.
 bool write_output(const std::string& path, const std::string& text,
                   const std::vector<std::string>& inputs, Streams io);
+
+// Options shared by the commands that solve: criteria on the command line, iteration limit,
+// case selection.
+struct SolveFlags {
+  std::string case_name;
+  std::string min_pressure, max_pressure, max_velocity;
+  int max_iterations = SolveOptions{}.max_iterations;
+
+  void add_to(CLI::App* app);
+  // Converts the criteria for `network` (its units and fluid). Prints the error.
+  bool criteria(const Network& network, Streams io, CriteriaOverride* out) const;
+  SolveOptions options() const;
+};
 
 }  // namespace gradeline

@@ -19,6 +19,19 @@ void write_at(std::ostringstream& out, const Node& n) {
   if (n.at) out << " at=" << exact_number(n.at->x) << "," << exact_number(n.at->y);
 }
 
+void write_limits(std::ostringstream& out, const Criteria& c, const std::string& case_name) {
+  const std::string suffix = case_name.empty() ? "" : " case=" + case_name;
+  if (c.min_pressure_m || c.max_pressure_m) {
+    out << "limit pressure";
+    if (c.min_pressure_m) out << " min=" << with_unit(*c.min_pressure_m, "m");
+    if (c.max_pressure_m) out << " max=" << with_unit(*c.max_pressure_m, "m");
+    out << suffix << "\n";
+  }
+  if (c.max_velocity_ms) {
+    out << "limit velocity max=" << with_unit(*c.max_velocity_ms, "m/s") << suffix << "\n";
+  }
+}
+
 }  // namespace
 
 std::string write_network(const Network& net) {
@@ -45,7 +58,10 @@ std::string write_network(const Network& net) {
           << " elevation=" << with_unit(n.elevation_m, "m");
     } else {
       out << "node " << n.id << " elevation=" << with_unit(n.elevation_m, "m");
-      if (n.demand_m3s != 0.0) out << " demand=" << with_unit(n.demand_m3s, "m3/s");
+      if (n.demand_m3s != 0.0 || !n.demand_category.empty()) {
+        out << " demand=" << with_unit(n.demand_m3s, "m3/s");
+        if (!n.demand_category.empty()) out << ":" << n.demand_category;
+      }
     }
     write_at(out, n);
     out << "\n";
@@ -60,6 +76,18 @@ std::string write_network(const Network& net) {
     if (p.check_valve) out << " check=yes";
     out << "\n";
   }
+  for (const DemandCase& c : net.cases) {
+    out << "case " << c.name << " factor=" << exact_number(c.factor);
+    for (const auto& [category, f] : c.category_factors) {
+      out << " factor." << category << "=" << exact_number(f);
+    }
+    for (const auto& [node, q] : c.draws_m3s) {
+      out << " draw=" << net.nodes[node].id << ":" << with_unit(q, "m3/s");
+    }
+    out << "\n";
+  }
+  write_limits(out, net.limits, "");
+  for (const CaseCriteria& c : net.case_limits) write_limits(out, c.criteria, c.case_name);
   return out.str();
 }
 

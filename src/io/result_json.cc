@@ -45,7 +45,8 @@ void write_summary(const Network& net, const SolveResult& r, JsonStream* j) {
 
 }  // namespace
 
-void write_result_json(const Network& net, const SolveResult& r, JsonStream* j) {
+void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
+                       const std::function<void(JsonStream*)>& more) {
   j->begin_object();
   write_summary(net, r, j);
   j->key("nodes");
@@ -86,6 +87,7 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j) 
     j->end_object();
   }
   j->end_array();
+  if (more) more(j);
   j->end_object();
 }
 

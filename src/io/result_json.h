@@ -3,6 +3,7 @@
 // written as null.
 #pragma once
 
+#include <functional>
 #include <string>
 
 #include "gradeline/network.h"
@@ -11,8 +12,10 @@
 
 namespace gradeline {
 
-// Writes the result object {"summary", "nodes", "links"} to `json`.
-void write_result_json(const Network& network, const SolveResult& result, JsonStream* json);
+// Writes the result object {"summary", "nodes", "links"} to `json`; `more` may add fields
+// before the object closes.
+void write_result_json(const Network& network, const SolveResult& result, JsonStream* json,
+                       const std::function<void(JsonStream*)>& more = {});
 
 std::string result_json_text(const Network& network, const SolveResult& result);
 

@@ -24,7 +24,8 @@ std::string rule(std::size_t width) { return std::string(width, '-') + "\n"; }
 
 }  // namespace
 
-std::string solve_summary_text(const Network& net, const SolveResult& r, const std::string& file) {
+std::string solve_summary_text(const Network& net, const SolveResult& r, const std::string& file,
+                               const std::string& case_name) {
   const SolveSummary& s = r.summary;
   const DisplayUnit flow = display_flow(net.units);
   std::string out;
@@ -36,6 +37,7 @@ std::string solve_summary_text(const Network& net, const SolveResult& r, const s
           net.headloss.law == HeadlossLaw::kDarcyWeisbach ? "Darcy-Weisbach (Colebrook-White)"
                                                           : "Hazen-Williams",
           net.fluid.density_kgm3, net.fluid.kinematic_viscosity_m2s);
+  if (!case_name.empty()) appendf(&out, "case        %s\n", case_name.c_str());
   if (s.converged()) {
     appendf(&out, "status      SOLVED in %d Newton iterations\n", s.iterations);
   } else {
@@ -66,8 +68,9 @@ std::string solve_summary_text(const Network& net, const SolveResult& r, const s
 
 std::string solve_report_text(const Network& net, const SolveResult& r, const std::string& file,
                               const ReportOptions& options) {
-  std::string out = solve_summary_text(net, r, file);
+  std::string out = solve_summary_text(net, r, file, options.case_name);
   if (!r.summary.converged()) return out;
+  out += options.criteria_block;
   const DisplayUnit flow = display_flow(net.units);
   const DisplayUnit len = display_length(net.units);
   const DisplayUnit dia = display_diameter(net.units);

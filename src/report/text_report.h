@@ -18,11 +18,13 @@ inline constexpr const char* kCaution =
     "and the local codes, above all where low pressure or fire protection is at stake.\n";
 
 struct ReportOptions {
-  bool tables = true;  // false: summary and warnings only
+  bool tables = true;          // false: summary and warnings only
+  std::string case_name;       // shown in the summary when not empty
+  std::string criteria_block;  // criteria and violations, shown after the summary
 };
 
 std::string solve_summary_text(const Network& network, const SolveResult& result,
-                               const std::string& file);
+                               const std::string& file, const std::string& case_name = "");
 std::string solve_report_text(const Network& network, const SolveResult& result,
                               const std::string& file, const ReportOptions& options = {});
 

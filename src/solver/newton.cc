@@ -29,8 +29,9 @@ struct State {
 
 class GradientSolver {
  public:
-  GradientSolver(const Network& net, const SolveOptions& options)
-      : net_(net), options_(options) {}
+  GradientSolver(const Network& net, const SolveOptions& options,
+                 const std::vector<double>& demand_m3s)
+      : net_(net), options_(options), given_demand_(demand_m3s) {}
   SolveResult run();
 
  private:
@@ -47,6 +48,7 @@ class GradientSolver {
 
   const Network& net_;
   const SolveOptions& options_;
+  const std::vector<double>& given_demand_;
   std::vector<PipeLaw> laws_;
   Topology topology_;
   AssemblyPlan plan_;
@@ -205,7 +207,7 @@ SolveResult GradientSolver::run() {
   double mean_fixed = 0.0;
   int fixed = 0;
   for (std::size_t n = 0; n < nodes; ++n) {
-    demand_[n] = net_.nodes[n].is_fixed_head() ? 0.0 : net_.nodes[n].demand_m3s;
+    demand_[n] = net_.nodes[n].is_fixed_head() ? 0.0 : given_demand_[n];
     if (net_.nodes[n].is_fixed_head()) {
       s.head[n] = net_.nodes[n].head_m;
       mean_fixed += s.head[n];
@@ -355,15 +357,25 @@ std::string SolveOptions::validate() const {
   return "";
 }
 
-SolveResult solve(const Network& network, const SolveOptions& options) {
+SolveResult solve(const Network& network, const SolveOptions& options,
+                  const std::vector<double>& demand_m3s) {
   std::string invalid = options.validate();
+  if (invalid.empty() && demand_m3s.size() != network.nodes.size()) {
+    invalid = "one demand per node is needed";
+  }
   if (!invalid.empty()) {
     SolveResult r;
     r.summary.termination = Termination::kInvalidOptions;
     r.summary.message = invalid;
     return r;
   }
-  return GradientSolver(network, options).run();
+  return GradientSolver(network, options, demand_m3s).run();
+}
+
+SolveResult solve(const Network& network, const SolveOptions& options) {
+  std::vector<double> demand(network.nodes.size());
+  for (std::size_t n = 0; n < demand.size(); ++n) demand[n] = network.nodes[n].demand_m3s;
+  return solve(network, options, demand);
 }
 
 const char* termination_name(Termination t) {

@@ -1,0 +1,48 @@
+#include "analysis/case_run.h"
+
+#include "io/diagnostics.h"
+#include "model/demand_cases.h"
+
+namespace gradeline {
+
+bool select_cases(const Network& net, const std::string& selection,
+                  std::vector<DemandCase>* cases, std::string* error) {
+  std::vector<DemandCase> all = cases_of(net);
+  if (selection == "all") {
+    *cases = all;
+    return true;
+  }
+  if (selection.empty()) {
+    *cases = {all.front()};
+    return true;
+  }
+  std::vector<std::string> names;
+  for (const DemandCase& c : all) {
+    if (c.name == selection) {
+      *cases = {c};
+      return true;
+    }
+    names.push_back(c.name);
+  }
+  *error = "no case '" + selection + "' in the network";
+  std::string near = nearest_word(selection, names);
+  if (!near.empty()) *error += " (did you mean '" + near + "'?)";
+  return false;
+}
+
+CaseOutcome run_case(const Network& net, const DemandCase& c, const SolveOptions& options,
+                     const CriteriaOverride& o) {
+  CaseOutcome out;
+  out.demand_case = c;
+  out.criteria = criteria_for(net, c.name);
+  if (o.min_pressure_m) out.criteria.min_pressure_m = o.min_pressure_m;
+  if (o.max_pressure_m) out.criteria.max_pressure_m = o.max_pressure_m;
+  if (o.max_velocity_ms) out.criteria.max_velocity_ms = o.max_velocity_ms;
+  out.result = solve(net, options, case_demands(net, c));
+  if (out.result.summary.converged()) {
+    out.violations = find_violations(net, c.name, out.result, out.criteria);
+  }
+  return out;
+}
+
+}  // namespace gradeline

@@ -1,0 +1,83 @@
+#include "analysis/compare.h"
+
+#include <algorithm>
+#include <cmath>
+#include <map>
+
+#include "model/demand_cases.h"
+
+namespace gradeline {
+namespace {
+
+DemandCase case_named(const Network& net, const std::string& name) {
+  for (const DemandCase& c : cases_of(net)) {
+    if (c.name == name) return c;
+  }
+  DemandCase missing;
+  missing.name = name;
+  return missing;
+}
+
+CaseComparison compare_case(const Network& before, const Network& after, const std::string& name,
+                            const SolveOptions& options, const CriteriaOverride& o) {
+  CaseComparison c;
+  c.case_name = name;
+  c.before = run_case(before, case_named(before, name), options, o);
+  c.after = run_case(after, case_named(after, name), options, o);
+  if (!c.solved()) return c;
+  const SolveResult& rb = c.before.result;
+  const SolveResult& ra = c.after.result;
+  for (std::size_t n = 0; n < before.nodes.size(); ++n) {
+    const Node& node = before.nodes[n];
+    if (node.is_fixed_head()) continue;
+    auto m = after.find_node(node.id);
+    if (!m) continue;
+    NodeChange change;
+    change.id = node.id;
+    change.before_pressure_m = rb.nodes[n].pressure_m;
+    change.after_pressure_m = ra.nodes[*m].pressure_m;
+    change.before_pressure_pa = rb.nodes[n].pressure_pa;
+    change.after_pressure_pa = ra.nodes[*m].pressure_pa;
+    c.nodes.push_back(change);
+    const bool failed = node_fails(before, n, rb, c.before.criteria);
+    const bool fails = node_fails(after, *m, ra, c.after.criteria);
+    if (failed && !fails) c.fixed.push_back(node.id);
+    if (failed && fails) c.still_failing.push_back(node.id);
+    if (!failed && fails) c.newly_failing.push_back(node.id);
+  }
+  for (std::size_t m = 0; m < after.nodes.size(); ++m) {  // junctions the changes added
+    const Node& node = after.nodes[m];
+    if (node.is_fixed_head() || before.find_node(node.id)) continue;
+    if (node_fails(after, m, ra, c.after.criteria)) c.newly_failing.push_back(node.id);
+  }
+  std::stable_sort(c.nodes.begin(), c.nodes.end(), [](const NodeChange& a, const NodeChange& b) {
+    const double da = std::abs(a.delta_m()), db = std::abs(b.delta_m());
+    if (std::isnan(da) != std::isnan(db)) return std::isnan(db);
+    return da > db;
+  });
+  return c;
+}
+
+}  // namespace
+
+Comparison compare_networks(const Network& before, const Network& after,
+                            const std::vector<std::string>& case_names,
+                            const SolveOptions& options, const CriteriaOverride& o) {
+  Comparison out;
+  for (const std::string& name : case_names) {
+    out.cases.push_back(compare_case(before, after, name, options, o));
+  }
+  std::map<double, LengthByDiameter> by_diameter;
+  for (const Pipe& p : after.pipes) {
+    auto old = before.find_pipe(p.id);
+    if (old && before.pipes[*old].diameter_m == p.diameter_m) continue;
+    LengthByDiameter& entry = by_diameter[p.diameter_m];
+    entry.diameter_m = p.diameter_m;
+    entry.length_m += p.length_m;
+    ++entry.pipes;
+  }
+  for (const auto& [d, entry] : by_diameter) out.new_or_resized.push_back(entry);
+  return out;
+}
+
+}  // namespace gradeline
