@@ -3,6 +3,7 @@
 
 #include <filesystem>
 #include <fstream>
+#include <map>
 #include <nlohmann/json.hpp>
 
 #include "test_support.h"
@@ -91,7 +92,7 @@ TEST_CASE("a missing input file exits 2") {
 }
 
 TEST_CASE("no solution exits 3 and prints no result") {
-  auto r = run_gradeline("solve tests/networks/loop_two_sources.gln --max-iterations 1");
+  auto r = run_gradeline("solve tests/networks/loop_minor_closed.gln --max-iterations 1");
   CHECK(r.exit_code == 3);
   CHECK(r.out.empty());
   CHECK(r.err.find("gradeline: error: no solution for case 'base': no convergence after 1 iterations") !=
@@ -113,4 +114,90 @@ TEST_CASE("an unwritable output folder exits 2 and leaves no file behind") {
   auto r = run_gradeline("solve tests/networks/loop_hazen.gln --json /nonexistent-dir/out.json");
   CHECK(r.exit_code == 2);
   CHECK(r.err.find("gradeline: error: cannot create a file in '/nonexistent-dir'") == 0);
+}
+
+TEST_CASE("--case all solves every case; a violated criterion exits 1 and is listed") {
+  auto r = run_gradeline("solve networks/brindlemoor.gln --case all --summary");
+  CHECK(r.exit_code == 1);
+  CHECK(r.out.find("case        average") != std::string::npos);
+  CHECK(r.out.find("case        fire_E13") != std::string::npos);
+  CHECK(r.out.find("criteria    1 VIOLATIONS") != std::string::npos);
+  CHECK(r.out.find("fire_E13     E13            pressure  min") != std::string::npos);
+}
+
+TEST_CASE("a case that meets its criteria exits 0; a command-line criterion can make it fail") {
+  CHECK(run_gradeline("solve networks/brindlemoor.gln --case average --summary").exit_code == 0);
+  auto r = run_gradeline("solve networks/brindlemoor.gln --case average --summary --min-pressure 50psi");
+  CHECK(r.exit_code == 1);
+  auto bad = run_gradeline("solve networks/brindlemoor.gln --min-pressure 50furlongs");
+  CHECK(bad.exit_code == 2);
+  CHECK(bad.err.find("gradeline: error: --min-pressure: bad unit 'furlongs'") == 0);
+  auto unknown = run_gradeline("solve networks/brindlemoor.gln --case peek");
+  CHECK(unknown.exit_code == 2);
+  CHECK(unknown.err == "gradeline: error: no case 'peek' in the network (did you mean 'peak'?)\n");
+}
+
+TEST_CASE("JSON of several cases nests them and lists the violations in SI") {
+  std::string path = temp_dir() + "/cases.json";
+  auto r = run_gradeline("solve networks/brindlemoor.gln --case all --summary --json " + path);
+  REQUIRE(r.exit_code == 1);
+  std::ifstream in(path);
+  nlohmann::json j = nlohmann::json::parse(in);
+  CHECK(j["cases"].size() == 3);
+  CHECK(j["cases"]["peak"]["summary"]["converged"] == true);
+  REQUIRE(j["violations"].size() == 1);
+  const auto& v = j["violations"][0];
+  CHECK(v["case"] == "fire_E13");
+  CHECK(v["id"] == "E13");
+  CHECK(v["quantity"] == "pressure");
+  CHECK(v["kind"] == "min");
+  CHECK(v["unit"] == "m");
+  CHECK(v["value"].get<double>() < v["limit"].get<double>());
+}
+
+TEST_CASE("compare: before and after columns equal two separate solve runs") {
+  const std::string dir = temp_dir();
+  auto cmp = run_gradeline("compare networks/brindlemoor.gln --apply networks/brindlemoor_fire_mains.chg "
+                           "--case fire_E13 --json " + dir + "/cmp.json");
+  REQUIRE(cmp.exit_code == 0);
+  CHECK(cmp.out.find("fixed          E13") != std::string::npos);
+  auto before = run_gradeline("solve networks/brindlemoor.gln --case fire_E13 --summary --json " + dir + "/b.json");
+  auto after = run_gradeline("solve networks/brindlemoor.gln --case fire_E13 --summary --apply "
+                             "networks/brindlemoor_fire_mains.chg --json " + dir + "/a.json");
+  CHECK(before.exit_code == 1);
+  CHECK(after.exit_code == 0);
+  std::ifstream c(dir + "/cmp.json"), b(dir + "/b.json"), a(dir + "/a.json");
+  nlohmann::json jc = nlohmann::json::parse(c), jb = nlohmann::json::parse(b), ja = nlohmann::json::parse(a);
+  std::map<std::string, double> pb, pa;
+  for (const auto& n : jb["nodes"]) pb[n["id"]] = n["pressure_kPa"].get<double>();
+  for (const auto& n : ja["nodes"]) pa[n["id"]] = n["pressure_kPa"].get<double>();
+  const auto& nodes = jc["cases"]["fire_E13"]["nodes"];
+  CHECK(nodes.size() == 28);
+  for (const auto& n : nodes) {
+    CHECK(n["before_pressure_kPa"].get<double>() == pb[n["id"]]);
+    CHECK(n["after_pressure_kPa"].get<double>() == pa[n["id"]]);
+  }
+  CHECK(jc["cases"]["fire_E13"]["fixed"] == nlohmann::json::array({"E13"}));
+  CHECK(jc["cases"]["fire_E13"]["newly_failing"].empty());
+}
+
+TEST_CASE("solve --write-network writes the merged network, never over an input") {
+  const std::string out = temp_dir() + "/merged.gln";
+  auto r = run_gradeline("solve networks/brindlemoor.gln --summary --apply networks/brindlemoor_fire_mains.chg "
+                         "--write-network " + out);
+  CHECK(r.exit_code == 0);
+  auto again = run_gradeline("solve " + out + " --case fire_E13 --summary");
+  CHECK(again.exit_code == 0);  // the upsized network meets the fire criteria
+  auto refuse = run_gradeline("solve networks/brindlemoor.gln --apply networks/brindlemoor_fire_mains.chg "
+                              "--write-network networks/brindlemoor_fire_mains.chg");
+  CHECK(refuse.exit_code == 2);
+  CHECK(refuse.err == "gradeline: error: refusing to write over the input file "
+                      "'networks/brindlemoor_fire_mains.chg'\n");
+}
+
+TEST_CASE("change-set errors from the command line exit 2 with FILE:LINE") {
+  std::string path = write_temp("bad.chg", "modify P999 diameter=300mm\n");
+  auto r = run_gradeline("solve networks/brindlemoor.gln --apply " + path);
+  CHECK(r.exit_code == 2);
+  CHECK(r.err == path + ":1: error: modify: no pipe or node 'P999' in the network\n");
 }

@@ -46,12 +46,32 @@ void check_same(const Network& a, const Network& b) {
     CHECK(x.status == y.status);
     CHECK(x.check_valve == y.check_valve);
   }
+  REQUIRE(a.cases.size() == b.cases.size());
+  for (std::size_t c = 0; c < a.cases.size(); ++c) {
+    CHECK(a.cases[c].name == b.cases[c].name);
+    CHECK(a.cases[c].factor == b.cases[c].factor);
+    CHECK(a.cases[c].category_factors == b.cases[c].category_factors);
+    CHECK(a.cases[c].draws_m3s == b.cases[c].draws_m3s);
+  }
+  CHECK(a.limits.min_pressure_m == b.limits.min_pressure_m);
+  CHECK(a.limits.max_pressure_m == b.limits.max_pressure_m);
+  CHECK(a.limits.max_velocity_ms == b.limits.max_velocity_ms);
+  REQUIRE(a.case_limits.size() == b.case_limits.size());
+  for (std::size_t c = 0; c < a.case_limits.size(); ++c) {
+    CHECK(a.case_limits[c].case_name == b.case_limits[c].case_name);
+    CHECK(a.case_limits[c].criteria.min_pressure_m == b.case_limits[c].criteria.min_pressure_m);
+    CHECK(a.case_limits[c].criteria.max_velocity_ms == b.case_limits[c].criteria.max_velocity_ms);
+  }
+  for (std::size_t i = 0; i < a.nodes.size(); ++i) {
+    CHECK(a.nodes[i].demand_category == b.nodes[i].demand_category);
+  }
 }
 
 }  // namespace
 
 TEST_CASE("write then parse reproduces every shipped network exactly") {
   for (const char* file : {"networks/brindlemoor.gln", "tests/networks/two_loop.gln",
+                           "tests/networks/loop_two_sources.gln",
                            "tests/networks/loop_minor_closed.gln", "tests/networks/loop_hazen.gln"}) {
     CAPTURE(file);
     Network first = testing::load(file);

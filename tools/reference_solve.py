@@ -56,8 +56,15 @@ def read(path):
         elif kw == "reservoir":
             net["nodes"][pos[0]] = {"fixed": value("head", opt["head"]), "z": value("head", opt["head"])}
         elif kw == "node":
+            demand, _, category = opt.get("demand", "0").partition(":")
             net["nodes"][pos[0]] = {"fixed": None, "z": value("elevation", opt["elevation"]),
-                                    "q": value("demand", opt.get("demand", "0"))}
+                                    "q": value("demand", demand), "category": category}
+        elif kw == "case":
+            draws = [w.split("=", 1)[1] for w in line[1:] if w.startswith("draw=")]
+            net.setdefault("cases", {})[pos[0]] = {
+                "factor": float(opt.get("factor", 1.0)),
+                "categories": {k[7:]: float(v) for k, v in opt.items() if k.startswith("factor.")},
+                "draws": [(d.rsplit(":", 1)[0], value("demand", d.rsplit(":", 1)[1])) for d in draws]}
         elif kw == "pipe":
             o = dict(net["defaults"])
             o.update(opt)
@@ -87,6 +94,18 @@ def headloss(net, p, q):
         else:
             h = Colebrook(re_, p["e"] / p["D"], tol=0) * p["L"] / p["D"] * v * v / (2 * G)
     return math.copysign(h + minor, q)
+
+
+def with_case(net, case):
+    """The network with the demands of a case: factor (or the category's) times base, plus draws."""
+    out = dict(net)
+    out["nodes"] = {i: dict(n) for i, n in net["nodes"].items()}
+    for n in out["nodes"].values():
+        if n["fixed"] is None:
+            n["q"] *= case["categories"].get(n["category"], case["factor"])
+    for node, q in case["draws"]:
+        out["nodes"][node]["q"] += q
+    return out
 
 
 def solve(net):
@@ -134,7 +153,10 @@ def main():
     for path in sys.argv[1:]:
         name = path.rsplit("/", 1)[-1].rsplit(".", 1)[0]
         out = "tests/reference/%s.json" % name
-        result = solve(read(path))
+        net = read(path)
+        result = solve(net)
+        if net.get("cases"):
+            result["cases"] = {name: solve(with_case(net, c)) for name, c in net["cases"].items()}
         json.dump(result, open(out, "w"), indent=1, sort_keys=True)
         print("%s: max residual %.2e -> %s" % (path, result["max_residual"], out))
 

@@ -287,14 +287,16 @@ ParseResult NetworkParser::finish() {
     if (diagnostics_.full()) break;
     add_pipe_to_network(std::move(p), defaults_, &net_, &diagnostics_);
   }
-  for (CaseRead& c : cases_) {
+  for (std::size_t i = 0; i < cases_.size(); ++i) {
+    CaseRead& c = cases_[i];
     const DemandCase& dc = c.demand_case;
-    auto same = std::find_if(net_.cases.begin(), net_.cases.end(),
-                             [&](const DemandCase& x) { return x.name == dc.name; });
-    if (same != net_.cases.end()) {
+    auto same = std::find_if(cases_.begin(), cases_.begin() + static_cast<std::ptrdiff_t>(i),
+                             [&](const CaseRead& x) { return x.demand_case.name == dc.name; });
+    if (same != cases_.begin() + static_cast<std::ptrdiff_t>(i)) {
+      const SourceLocation& first = same->demand_case.where;
       error(dc.where.file, dc.where.line,
-            "duplicate case '" + dc.name + "' (first defined at " + same->where.file + ":" +
-                std::to_string(same->where.line) + ")");
+            "duplicate case '" + dc.name + "' (first defined at " + first.file + ":" +
+                std::to_string(first.line) + ")");
       continue;
     }
     if (resolve_case(&c, net_, &diagnostics_)) net_.cases.push_back(std::move(c.demand_case));
