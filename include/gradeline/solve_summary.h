@@ -14,6 +14,7 @@ enum class Termination {
   kLinearSolverFailed, // the Schur complement was not positive definite
   kNonFinite,          // NaN or infinity appeared in the state
   kInvalidOptions,
+  kSelfCheckFailed,    // the result failed the independent recomputation of its residuals
 };
 
 const char* termination_name(Termination t);

@@ -1,5 +1,6 @@
 #include "analysis/case_run.h"
 
+#include "analysis/self_check.h"
 #include "io/diagnostics.h"
 #include "model/demand_cases.h"
 
@@ -38,8 +39,16 @@ CaseOutcome run_case(const Network& net, const DemandCase& c, const SolveOptions
   if (o.min_pressure_m) out.criteria.min_pressure_m = o.min_pressure_m;
   if (o.max_pressure_m) out.criteria.max_pressure_m = o.max_pressure_m;
   if (o.max_velocity_ms) out.criteria.max_velocity_ms = o.max_velocity_ms;
-  out.result = solve(net, options, case_demands(net, c));
+  const std::vector<double> demand = case_demands(net, c);
+  out.result = solve(net, options, demand);
   if (out.result.summary.converged()) {
+    SelfCheck check = check_result(net, demand, out.result, options);
+    if (!check.ok) {
+      // Never present a result that does not satisfy its own equations.
+      out.result.summary.termination = Termination::kSelfCheckFailed;
+      out.result.summary.message = "self-check failed: " + check.failure;
+      return out;
+    }
     out.violations = find_violations(net, c.name, out.result, out.criteria);
   }
   return out;

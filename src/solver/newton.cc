@@ -385,6 +385,7 @@ const char* termination_name(Termination t) {
     case Termination::kLinearSolverFailed: return "linear solver failed";
     case Termination::kNonFinite: return "non-finite state";
     case Termination::kInvalidOptions: return "invalid options";
+    case Termination::kSelfCheckFailed: return "self-check failed";
   }
   return "unknown";
 }

@@ -1,0 +1,67 @@
+#include "analysis/self_check.h"
+
+#include <cmath>
+#include <sstream>
+
+#include "hydraulics/link_law.h"
+
+namespace gradeline {
+
+SelfCheck check_result(const Network& net, const std::vector<double>& demand,
+                       const SolveResult& r, const SolveOptions& options) {
+  SelfCheck out;
+  auto fail = [&](const std::string& what) {
+    out.ok = false;
+    out.failure = what;
+    return out;
+  };
+  if (r.nodes.size() != net.nodes.size() || r.links.size() != net.pipes.size()) {
+    return fail("the result does not cover the network");
+  }
+  std::vector<double> balance(net.nodes.size(), 0.0);
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    const LinkState& l = r.links[k];
+    const Pipe& p = net.pipes[k];
+    if (!std::isfinite(l.flow_m3s) || !std::isfinite(l.headloss_m) || !std::isfinite(l.velocity_ms)) {
+      return fail("pipe '" + p.id + "' has a non-finite flow or head loss");
+    }
+    if (!l.open && l.flow_m3s != 0.0) return fail("closed pipe '" + p.id + "' carries flow");
+    balance[p.from] -= l.flow_m3s;
+    balance[p.to] += l.flow_m3s;
+    if (!l.open) {
+      const NodeState &a = r.nodes[p.from], &b = r.nodes[p.to];
+      if (l.closed_by_check_valve && a.supplied && b.supplied &&
+          a.head_m > b.head_m + kSelfCheckSlack * options.energy_tolerance_m) {
+        return fail("check valve '" + p.id + "' is closed with a head favouring forward flow");
+      }
+      continue;
+    }
+    PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
+    const double h = evaluate_pipe(law, l.flow_m3s).headloss_m;
+    const double e = h - (r.nodes[p.from].head_m - r.nodes[p.to].head_m);
+    const double tolerance = kSelfCheckSlack * options.energy_tolerance_m;
+    if (!(std::abs(e) <= tolerance)) {
+      std::ostringstream m;
+      m << "pipe '" << p.id << "' energy residual " << e << " m exceeds " << tolerance << " m";
+      return fail(m.str());
+    }
+  }
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    const NodeState& ns = r.nodes[n];
+    if (net.nodes[n].is_fixed_head() || !ns.supplied) continue;
+    if (!std::isfinite(ns.head_m) || !std::isfinite(ns.pressure_pa)) {
+      return fail("node '" + net.nodes[n].id + "' has a non-finite head");
+    }
+    const double c = balance[n] - demand[n];
+    const double tolerance = kSelfCheckSlack * options.continuity_tolerance_m3s;
+    if (!(std::abs(c) <= tolerance)) {
+      std::ostringstream m;
+      m << "node '" << net.nodes[n].id << "' continuity residual " << c << " m3/s exceeds "
+        << tolerance << " m3/s";
+      return fail(m.str());
+    }
+  }
+  return out;
+}
+
+}  // namespace gradeline
