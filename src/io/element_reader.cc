@@ -267,7 +267,8 @@ bool resolve_case(CaseRead* r, const Network& net, Diagnostics* d) {
       dc.draws_m3s.emplace_back(*n, flow);
     }
   }
-  for (const auto& [category, factor] : dc.category_factors) {
+  for (const auto& entry : dc.category_factors) {
+    const std::string& category = entry.first;
     bool used = std::any_of(net.nodes.begin(), net.nodes.end(),
                             [&](const Node& n) { return n.demand_category == category; });
     if (!used) {

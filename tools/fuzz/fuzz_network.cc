@@ -1,0 +1,34 @@
+// libFuzzer target: the network parser. Any input must give a model or errors, never a crash,
+// a hang or a sanitizer report. A network that parses must also round-trip through the writer,
+// and a small one must solve to a result that passes the self-check or report that it did not.
+#include <cstddef>
+#include <cstdint>
+#include <cstdlib>
+#include <string>
+
+#include "analysis/self_check.h"
+#include "gradeline/solver.h"
+#include "io/network_writer.h"
+#include "io/parser.h"
+
+using namespace gradeline;
+
+extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
+  std::string text(reinterpret_cast<const char*>(data), size);
+  ParseResult r = parse_network_text(text, "fuzz.gln");
+  if (!r.ok()) return 0;
+  std::string written = write_network(r.network);
+  ParseResult again = parse_network_text(written, "written.gln");
+  if (!again.ok() || write_network(again.network) != written) std::abort();
+  if (r.network.pipes.size() <= 200) {
+    SolveOptions options;
+    options.max_iterations = 30;
+    SolveResult s = solve(r.network, options);
+    if (s.summary.converged()) {
+      std::vector<double> demand;
+      for (const Node& n : r.network.nodes) demand.push_back(n.demand_m3s);
+      (void)check_result(r.network, demand, s, options);
+    }
+  }
+  return 0;
+}
