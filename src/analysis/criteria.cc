@@ -12,7 +12,7 @@ bool has_criteria(const Criteria& c) {
 
 namespace {
 
-void node_violations(const Network& net, std::size_t n, const std::string& case_name,
+void node_violations(std::size_t n, const std::string& case_name,
                      const SolveResult& r, const Criteria& c, std::vector<Violation>* out) {
   const NodeState& ns = r.nodes[n];
   Violation v;
@@ -51,7 +51,7 @@ std::vector<Violation> find_violations(const Network& net, const std::string& ca
                                        const SolveResult& r, const Criteria& c) {
   std::vector<Violation> nodes, pipes;
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    if (!net.nodes[n].is_fixed_head()) node_violations(net, n, case_name, r, c, &nodes);
+    if (!net.nodes[n].is_fixed_head()) node_violations(n, case_name, r, c, &nodes);
   }
   if (c.max_velocity_ms) {
     for (std::size_t k = 0; k < net.pipes.size(); ++k) {
@@ -79,8 +79,9 @@ std::vector<Violation> find_violations(const Network& net, const std::string& ca
 }
 
 bool node_fails(const Network& net, std::size_t n, const SolveResult& r, const Criteria& c) {
+  if (net.nodes[n].is_fixed_head()) return false;
   std::vector<Violation> v;
-  node_violations(net, n, "", r, c, &v);
+  node_violations(n, "", r, c, &v);
   return !v.empty();
 }
 

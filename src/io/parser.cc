@@ -328,6 +328,11 @@ bool read_text_file(const std::string& path, std::string* text, std::string* err
     *error = std::strerror(errno);
     return false;
   }
+  const auto size = fs::file_size(path, ec);
+  if (!ec && static_cast<long long>(size) > kMaxFileBytes) {
+    *error = "file is larger than 1 GiB (" + std::to_string(size >> 20) + " MiB)";
+    return false;
+  }
   std::ostringstream buffer;
   buffer << in.rdbuf();
   *text = buffer.str();

@@ -12,6 +12,9 @@
 namespace gradeline {
 
 inline constexpr int kMaxIncludeDepth = 16;
+// Larger files are refused before they are read: 10^6 pipes take about 80 MB, and the model
+// takes a few times the size of its text in memory.
+inline constexpr long long kMaxFileBytes = 1LL << 30;
 
 struct ParseResult {
   Network network;
