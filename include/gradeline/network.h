@@ -112,6 +112,7 @@ struct Network {
   // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
   void reindex();
   std::size_t add_node(Node node);
+  void reserve(std::size_t nodes, std::size_t pipes);
   std::size_t add_pipe(Pipe pipe);
 
  private:

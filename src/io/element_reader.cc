@@ -205,16 +205,13 @@ bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
               std::to_string(first.line) + ")");
     return false;
   }
-  bool ends_ok = true;
-  for (const std::string* end : {&p.from_id, &p.to_id}) {
-    if (!net->find_node(*end)) {
-      error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + *end + "'");
-      ends_ok = false;
-    }
-  }
-  if (!ends_ok) return false;
-  p.pipe.from = *net->find_node(p.from_id);
-  p.pipe.to = *net->find_node(p.to_id);
+  const std::optional<std::size_t> from = net->find_node(p.from_id);
+  const std::optional<std::size_t> to = net->find_node(p.to_id);
+  if (!from) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.from_id + "'");
+  if (!to) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.to_id + "'");
+  if (!from || !to) return false;
+  p.pipe.from = *from;
+  p.pipe.to = *to;
   if (!p.roughness_given) p.pipe.roughness_m = defaults.roughness_m;
   if (!p.cfactor_given) p.pipe.cfactor = defaults.cfactor;
   if (!p.minor_given && defaults.minor_k) p.pipe.minor_k = *defaults.minor_k;

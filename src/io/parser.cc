@@ -97,6 +97,7 @@ void NetworkParser::parse_file(const std::string& path, int depth, const std::st
 
 void NetworkParser::parse_text(std::string_view text, const std::string& file, int depth) {
   std::vector<std::string_view> lines = split_lines(text);
+  if (depth == 0) net_.reserve(lines.size(), lines.size());  // an upper bound for both
   if (depth == 0) {
     last_file_ = file;
     last_line_ = std::max<int>(1, static_cast<int>(lines.size()));
@@ -282,7 +283,6 @@ ParseResult NetworkParser::finish() {
     n.head_m = n.elevation_m + r.pressure.to_head_m(fluid.density_kgm3);
   }
 
-  net_.pipes.reserve(pipes_.size());
   for (PipeRead& p : pipes_) {
     if (diagnostics_.full()) break;
     add_pipe_to_network(std::move(p), defaults_, &net_, &diagnostics_);

@@ -23,6 +23,13 @@ void Network::reindex() {
   for (std::size_t i = 0; i < pipes.size(); ++i) pipe_index_.emplace(pipes[i].id, i);
 }
 
+void Network::reserve(std::size_t node_count, std::size_t pipe_count) {
+  nodes.reserve(node_count);
+  pipes.reserve(pipe_count);
+  node_index_.reserve(node_count);
+  pipe_index_.reserve(pipe_count);
+}
+
 std::size_t Network::add_node(Node node) {
   std::size_t index = nodes.size();
   node_index_.emplace(node.id, index);
