@@ -201,3 +201,32 @@ TEST_CASE("change-set errors from the command line exit 2 with FILE:LINE") {
   CHECK(r.exit_code == 2);
   CHECK(r.err == path + ":1: error: modify: no pipe or node 'P999' in the network\n");
 }
+
+TEST_CASE("size writes a change set that solve --apply accepts, and JSON with the cost") {
+  const std::string dir = temp_dir();
+  auto r = run_gradeline("size networks/brindlemoor.gln --catalogue networks/brindlemoor_catalogue.cat "
+                         "--changes " + dir + "/sized.chg --json " + dir + "/sized.json");
+  REQUIRE(r.exit_code == 0);
+  CHECK(r.out.find("FEASIBLE design found") != std::string::npos);
+  auto check = run_gradeline("solve networks/brindlemoor.gln --case all --summary --apply " + dir + "/sized.chg");
+  CHECK(check.exit_code == 0);  // every case meets its criteria with the sized mains
+  std::ifstream in(dir + "/sized.json");
+  nlohmann::json j = nlohmann::json::parse(in);
+  CHECK(j["feasible"] == true);
+  CHECK(j["cost"].get<double>() > 0.0);
+  CHECK(j["changes"][0].contains("from_diameter_m"));
+  CHECK(j["min_pressure_m"].contains("fire_E13"));
+}
+
+TEST_CASE("size exits 1 on an infeasible problem and still writes the labelled best effort") {
+  const std::string dir = temp_dir();
+  auto r = run_gradeline("size networks/brindlemoor.gln --catalogue networks/brindlemoor_catalogue.cat "
+                         "--min-pressure 600kPa --changes " + dir + "/effort.chg");
+  CHECK(r.exit_code == 1);
+  CHECK(r.out.find("NO FEASIBLE DESIGN") != std::string::npos);
+  std::ifstream in(dir + "/effort.chg");
+  std::string first;
+  std::getline(in, first);
+  std::getline(in, first);
+  CHECK(first == "# BEST EFFORT ONLY: this design does NOT meet the criteria");
+}

@@ -54,6 +54,7 @@ struct Pipe {
   double minor_k = 0.0;               // sum of minor-loss coefficients
   LinkStatus status = LinkStatus::kOpen;
   bool check_valve = false;  // flow only from `from` to `to`
+  bool resizable = false;    // marked for `gradeline size` (resize=yes)
   SourceLocation where;
 };
 

@@ -10,7 +10,7 @@ namespace gradeline {
 
 const std::vector<CommandSpec>& command_table() {
   static const std::vector<CommandSpec> table = {check_command(), solve_command(),
-                                                 compare_command()};
+                                                 compare_command(), size_command()};
   return table;
 }
 

@@ -37,6 +37,7 @@ const std::vector<CommandSpec>& command_table();
 CommandSpec check_command();
 CommandSpec solve_command();
 CommandSpec compare_command();
+CommandSpec size_command();
 
 // Parses a network file and prints its errors. False on any error.
 bool load_network(const std::string& path, Streams io, Network* network);

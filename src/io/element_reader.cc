@@ -120,7 +120,7 @@ std::optional<Node> read_junction(const Statement& s, const ReadContext& c) {
 }
 
 const std::vector<std::string> kPipeKeys = {"length", "diameter", "roughness", "cfactor",
-                                            "minor",  "status",   "check"};
+                                            "minor",  "status",   "check",     "resize"};
 
 void read_pipe_keys(StatementOptions& o, PipeRead* p) {
   if (auto v = o.quantity("length", Dimension::kLength, kLengthRange)) p->pipe.length_m = *v;
@@ -144,6 +144,13 @@ void read_pipe_keys(StatementOptions& o, PipeRead* p) {
       p->pipe.status = LinkStatus::kClosed;
     } else {
       o.error("status must be 'open' or 'closed', got '" + *status + "'");
+    }
+  }
+  if (const std::string* resize = o.find("resize")) {
+    if (*resize == "yes" || *resize == "no") {
+      p->pipe.resizable = *resize == "yes";
+    } else {
+      o.error("resize must be 'yes' or 'no', got '" + *resize + "'");
     }
   }
   if (const std::string* check = o.find("check")) {

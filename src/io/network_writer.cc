@@ -74,6 +74,7 @@ std::string write_network(const Network& net) {
     if (p.minor_k != 0.0) out << " minor=" << exact_number(p.minor_k);
     if (p.status == LinkStatus::kClosed) out << " status=closed";
     if (p.check_valve) out << " check=yes";
+    if (p.resizable) out << " resize=yes";
     out << "\n";
   }
   for (const DemandCase& c : net.cases) {

@@ -1,0 +1,336 @@
+#include "design/sizing.h"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <limits>
+#include <map>
+
+namespace gradeline {
+namespace {
+
+using Design = std::vector<int>;  // per candidate pipe: index into its options
+
+struct Evaluation {
+  bool feasible = false;
+  double margin_m = -std::numeric_limits<double>::infinity();  // worst pressure margin
+  std::vector<std::pair<std::string, double>> min_pressure_m;
+  std::vector<Violation> violations;
+};
+
+void set_size(Pipe* p, const CatalogueItem& item) {
+  p->diameter_m = item.diameter_m;
+  if (item.roughness_m) p->roughness_m = item.roughness_m;
+  if (item.cfactor) p->cfactor = item.cfactor;
+}
+
+class Sizer {
+ public:
+  Sizer(const Network& net, const Catalogue& cat, const SizingProblem& problem)
+      : net_(net), cat_(cat), problem_(problem), work_(net) {
+    for (std::size_t pipe : problem.pipes) {
+      options_.push_back(size_options(net, pipe, cat, problem.new_pipes));
+    }
+  }
+  SizingResult run();
+
+ private:
+  double cost(const Design& d) const {
+    double c = 0.0;
+    for (std::size_t i = 0; i < d.size(); ++i) c += options_[i][d[i]].cost;
+    return c;
+  }
+  const Evaluation& evaluate(const Design& d);
+  Design greedy_descent(Design d);
+  Design greedy_ascent(Design d);
+  Design local_search(Design d);
+  Design enumerate();
+  Design perturb(Design d);
+
+  void explain(const Design& d, SizingResult* out);
+
+  const Network& net_;
+  const Catalogue& cat_;
+  const SizingProblem& problem_;
+  Network work_;  // the network with the trial sizes
+  std::vector<std::vector<SizeOption>> options_;
+  std::map<Design, Evaluation> memo_;
+  long long solves_ = 0;
+  double best_cost_ = std::numeric_limits<double>::infinity();
+};
+
+const Evaluation& Sizer::evaluate(const Design& d) {
+  auto it = memo_.find(d);
+  if (it != memo_.end()) return it->second;
+  for (std::size_t i = 0; i < d.size(); ++i) {
+    const std::size_t k = problem_.pipes[i];
+    work_.pipes[k] = net_.pipes[k];
+    const SizeOption& o = options_[i][d[i]];
+    if (o.item >= 0) set_size(&work_.pipes[k], cat_.items[o.item]);
+  }
+  Evaluation e;
+  e.feasible = true;
+  e.margin_m = std::numeric_limits<double>::infinity();
+  for (const DemandCase& c : problem_.cases) {
+    CaseOutcome o = run_case(work_, c, problem_.solve_options, problem_.criteria);
+    solves_ += 1;
+    if (!o.result.summary.converged()) {
+      e.feasible = false;
+      e.margin_m = -std::numeric_limits<double>::infinity();
+      break;
+    }
+    double lowest = std::numeric_limits<double>::infinity();
+    for (std::size_t n = 0; n < work_.nodes.size(); ++n) {
+      const NodeState& ns = o.result.nodes[n];
+      if (work_.nodes[n].is_fixed_head() || !ns.supplied) continue;
+      lowest = std::min(lowest, ns.pressure_m);
+      if (o.criteria.min_pressure_m) e.margin_m = std::min(e.margin_m, ns.pressure_m - *o.criteria.min_pressure_m);
+    }
+    e.min_pressure_m.emplace_back(c.name, lowest);
+    if (!o.violations.empty()) e.feasible = false;
+    e.violations.insert(e.violations.end(), o.violations.begin(), o.violations.end());
+  }
+  if (e.feasible) best_cost_ = std::min(best_cost_, cost(d));
+  if (problem_.progress && solves_ % 200 == 0) problem_.progress(solves_, best_cost_);
+  return memo_.emplace(d, std::move(e)).first->second;
+}
+
+// From a feasible design, step pipes down one size while the design stays feasible, each time
+// taking the step that saves most per metre of pressure margin it uses.
+Design Sizer::greedy_descent(Design d) {
+  for (;;) {
+    const double margin = evaluate(d).margin_m;
+    int best = -1;
+    double best_score = -1.0;
+    for (std::size_t i = 0; i < d.size(); ++i) {
+      if (d[i] == 0) continue;
+      Design t = d;
+      --t[i];
+      const Evaluation& e = evaluate(t);
+      if (!e.feasible) continue;
+      const double saving = cost(d) - cost(t);
+      const double score = saving / std::max(margin - e.margin_m, 1e-6);
+      if (score > best_score) {
+        best_score = score;
+        best = static_cast<int>(i);
+      }
+    }
+    if (best < 0) return d;
+    --d[best];
+  }
+}
+
+// From the cheapest design, step pipes up one size until feasible, each time taking the step
+// that gains most margin per unit of cost.
+Design Sizer::greedy_ascent(Design d) {
+  while (!evaluate(d).feasible) {
+    const double margin = evaluate(d).margin_m;
+    int best = -1;
+    double best_score = -std::numeric_limits<double>::infinity();
+    for (std::size_t i = 0; i < d.size(); ++i) {
+      if (d[i] + 1 >= static_cast<int>(options_[i].size())) continue;
+      Design t = d;
+      ++t[i];
+      const double gain = evaluate(t).margin_m - margin;
+      const double score = gain / std::max(cost(t) - cost(d), 1e-9);
+      if (score > best_score) {
+        best_score = score;
+        best = static_cast<int>(i);
+      }
+    }
+    if (best < 0) return d;
+    ++d[best];
+  }
+  return d;
+}
+
+// First-improvement search over single-pipe changes of any size and pair changes of up to
+// `reach` sizes each way, until no such move lowers the cost of a feasible design.
+Design Sizer::local_search(Design d) {
+  if (!evaluate(d).feasible) return d;
+  const int reach = d.size() > 20 ? 1 : d.size() > 10 ? 3 : 14;
+  bool improved = true;
+  while (improved) {
+    improved = false;
+    const double current = cost(d);
+    for (std::size_t i = 0; i < d.size() && !improved; ++i) {
+      for (int j = 0; j < static_cast<int>(options_[i].size()) && !improved; ++j) {
+        Design t = d;
+        t[i] = j;
+        if (cost(t) < current - 1e-9 && evaluate(t).feasible) {
+          d = t;
+          improved = true;
+        }
+      }
+    }
+    for (std::size_t i = 0; i < d.size() && !improved; ++i) {
+      for (std::size_t k = i + 1; k < d.size() && !improved; ++k) {
+        for (int a = -reach; a <= reach && !improved; ++a) {
+          for (int b = -reach; b <= reach && !improved; ++b) {
+            Design t = d;
+            t[i] += a;
+            t[k] += b;
+            if (t[i] < 0 || t[k] < 0 || t[i] >= static_cast<int>(options_[i].size()) ||
+                t[k] >= static_cast<int>(options_[k].size()) || (a == 0 && b == 0)) {
+              continue;
+            }
+            if (cost(t) < current - 1e-9 && evaluate(t).feasible) {
+              d = t;
+              improved = true;
+            }
+          }
+        }
+      }
+    }
+  }
+  return d;
+}
+
+// Iterated local search: from the best design, push one pipe up one to three sizes (or two
+// pipes up one size each), search locally again, and keep what is cheaper; stop when no kick
+// helps or the solve budget is spent.
+Design Sizer::perturb(Design d) {
+  constexpr long long kSolveBudget = 400000;
+  bool improved = true;
+  while (improved && solves_ < kSolveBudget) {
+    improved = false;
+    const double current = cost(d);
+    std::vector<Design> kicks;
+    for (std::size_t i = 0; i < d.size(); ++i) {
+      for (int k = 1; k <= 3; ++k) {
+        Design t = d;
+        t[i] += k;
+        if (t[i] < static_cast<int>(options_[i].size())) kicks.push_back(t);
+      }
+      for (std::size_t m = i + 1; m < d.size(); ++m) {
+        Design t = d;
+        ++t[i];
+        ++t[m];
+        if (t[i] < static_cast<int>(options_[i].size()) && t[m] < static_cast<int>(options_[m].size()))
+          kicks.push_back(t);
+      }
+    }
+    for (const Design& kick : kicks) {
+      if (solves_ >= kSolveBudget) break;
+      Design t = local_search(greedy_descent(kick));
+      if (evaluate(t).feasible && cost(t) < current - 1e-9) {
+        d = t;
+        improved = true;
+        break;
+      }
+    }
+  }
+  return d;
+}
+
+Design Sizer::enumerate() {
+  Design d(options_.size(), 0), best;
+  double best_cost = std::numeric_limits<double>::infinity();
+  for (;;) {
+    const double c = cost(d);
+    if (c < best_cost && evaluate(d).feasible) {
+      best_cost = c;
+      best = d;
+    }
+    std::size_t i = 0;
+    while (i < d.size() && ++d[i] == static_cast<int>(options_[i].size())) d[i++] = 0;
+    if (i == d.size()) break;
+  }
+  return best;
+}
+
+void Sizer::explain(const Design& d, SizingResult* out) {
+  for (std::size_t i = 0; i < d.size(); ++i) {
+    const SizeOption& o = options_[i][d[i]];
+    if (o.item < 0) continue;  // unchanged
+    const std::size_t k = problem_.pipes[i];
+    PipeChange ch;
+    ch.pipe = k;
+    if (!problem_.new_pipes) ch.from_diameter_m = net_.pipes[k].diameter_m;
+    ch.item = o.item;
+    ch.cost = o.cost;
+    if (d[i] > 0) {
+      Design t = d;
+      --t[i];
+      ch.smaller_item = options_[i][t[i]].item;
+      ch.saving_if_smaller = o.cost - options_[i][t[i]].cost;
+      const Evaluation& e = evaluate(t);
+      ch.margin_if_smaller_m = e.margin_m;
+    }
+    out->changes.push_back(ch);
+  }
+}
+
+SizingResult Sizer::run() {
+  auto start = std::chrono::steady_clock::now();
+  SizingResult out;
+  long long designs = 1;
+  for (const auto& o : options_) {
+    designs = designs > problem_.enumeration_limit ? designs : designs * static_cast<long long>(o.size());
+  }
+  Design top(options_.size());
+  for (std::size_t i = 0; i < top.size(); ++i) top[i] = static_cast<int>(options_[i].size()) - 1;
+  Design best;
+  if (!evaluate(top).feasible) {
+    best = top;  // best effort: everything at the largest size allowed
+    out.method = "none (infeasible at the largest sizes)";
+  } else if (designs <= problem_.enumeration_limit) {
+    best = enumerate();
+    out.method = "enumeration of " + std::to_string(designs) + " designs";
+  } else {
+    Design a = local_search(greedy_descent(top));
+    Design b = local_search(greedy_ascent(Design(options_.size(), 0)));
+    best = evaluate(b).feasible && cost(b) < cost(a) ? b : a;
+    best = perturb(best);
+    // Multi-start: greedy descent from every design with one pipe fixed at one size and the
+    // rest at their largest, then local search.
+    for (std::size_t i = 0; i < options_.size() && solves_ < 600000; ++i) {
+      for (int j = 0; j + 1 < static_cast<int>(options_[i].size()); ++j) {
+        Design start = top;
+        start[i] = j;
+        if (!evaluate(start).feasible) continue;
+        Design t = local_search(greedy_descent(start));
+        if (evaluate(t).feasible && cost(t) < cost(best) - 1e-9) best = t;
+      }
+    }
+    out.method = "greedy descent and ascent, local search with kicks, multi-start descent";
+  }
+  const Evaluation& e = evaluate(best);
+  out.feasible = e.feasible;
+  out.cost = cost(best);
+  out.min_pressure_m = e.min_pressure_m;
+  out.min_margin_m = e.margin_m;
+  if (!e.feasible) out.remaining = e.violations;
+  explain(best, &out);
+  out.solves = solves_;
+  out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
+  return out;
+}
+
+}  // namespace
+
+std::vector<SizeOption> size_options(const Network& net, std::size_t pipe, const Catalogue& cat,
+                                     bool new_pipe) {
+  std::vector<SizeOption> out;
+  const Pipe& p = net.pipes[pipe];
+  if (!new_pipe) out.push_back({-1, p.diameter_m, 0.0});
+  for (std::size_t i = 0; i < cat.items.size(); ++i) {
+    const CatalogueItem& item = cat.items[i];
+    if (!new_pipe && item.diameter_m < p.diameter_m) continue;
+    out.push_back({static_cast<int>(i), item.diameter_m,
+                   item.cost_per_m * p.length_m + cat.mobilisation_cost});
+  }
+  return out;
+}
+
+SizingResult size_pipes(const Network& net, const Catalogue& cat, const SizingProblem& problem) {
+  return Sizer(net, cat, problem).run();
+}
+
+Network apply_sizes(const Network& net, const Catalogue& cat, const std::vector<PipeChange>& changes) {
+  Network out = net;
+  for (const PipeChange& c : changes) set_size(&out.pipes[c.pipe], cat.items[c.item]);
+  return out;
+}
+
+}  // namespace gradeline
