@@ -230,3 +230,17 @@ TEST_CASE("size exits 1 on an infeasible problem and still writes the labelled b
   std::getline(in, first);
   CHECK(first == "# BEST EFFORT ONLY: this design does NOT meet the criteria");
 }
+
+TEST_CASE("compare --catalogue prices the sized mains at the cost size reported") {
+  const std::string dir = temp_dir();
+  REQUIRE(run_gradeline("size networks/brindlemoor.gln --catalogue networks/brindlemoor_catalogue.cat "
+                        "--changes " + dir + "/s.chg --json " + dir + "/s.json").exit_code == 0);
+  auto r = run_gradeline("compare networks/brindlemoor.gln --apply " + dir + "/s.chg --catalogue "
+                         "networks/brindlemoor_catalogue.cat --json " + dir + "/c.json");
+  CHECK(r.exit_code == 0);
+  std::ifstream s(dir + "/s.json"), c(dir + "/c.json");
+  nlohmann::json js = nlohmann::json::parse(s), jc = nlohmann::json::parse(c);
+  double total = 0.0;
+  for (const auto& d : jc["new_or_resized_pipes"]) total += d["cost"].get<double>();
+  CHECK(total == doctest::Approx(js["cost"].get<double>()));
+}

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <map>
 
+#include "design/catalogue.h"
 #include "model/demand_cases.h"
 
 namespace gradeline {
@@ -78,6 +79,22 @@ Comparison compare_networks(const Network& before, const Network& after,
   }
   for (const auto& [d, entry] : by_diameter) out.new_or_resized.push_back(entry);
   return out;
+}
+
+}  // namespace gradeline
+
+namespace gradeline {
+
+void price_changes(const Catalogue& catalogue, Comparison* cmp) {
+  cmp->priced = true;
+  for (LengthByDiameter& d : cmp->new_or_resized) {
+    for (const CatalogueItem& item : catalogue.items) {
+      if (std::abs(item.diameter_m - d.diameter_m) <= 1e-6) {
+        d.cost = item.cost_per_m * d.length_m + catalogue.mobilisation_cost * d.pipes;
+        break;
+      }
+    }
+  }
 }
 
 }  // namespace gradeline

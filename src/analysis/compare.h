@@ -4,6 +4,7 @@
 // and, over all, the length of new or resized pipe by diameter.
 #pragma once
 
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -34,12 +35,19 @@ struct LengthByDiameter {
   double diameter_m = 0.0;
   double length_m = 0.0;
   int pipes = 0;
+  std::optional<double> cost;  // from a catalogue item of this diameter, when one is given
 };
 
 struct Comparison {
   std::vector<CaseComparison> cases;
   std::vector<LengthByDiameter> new_or_resized;  // by diameter, smallest first
+  bool priced = false;  // a catalogue was given
 };
+
+struct Catalogue;
+// Prices the new or resized pipe from the catalogue item of the same diameter (cost per metre
+// times length, plus mobilisation per pipe).
+void price_changes(const Catalogue& catalogue, Comparison* comparison);
 
 // `case_names` are looked up in each network.
 Comparison compare_networks(const Network& before, const Network& after,

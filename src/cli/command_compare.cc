@@ -5,6 +5,7 @@
 
 #include "analysis/compare.h"
 #include "cli/commands.h"
+#include "design/catalogue.h"
 #include "report/compare_report.h"
 
 namespace gradeline {
@@ -14,6 +15,7 @@ struct CompareArgs {
   std::string file;
   std::vector<std::string> applies;
   std::string json_path;
+  std::string catalogue;
   SolveFlags flags;
 };
 
@@ -33,6 +35,12 @@ int run_compare(const CompareArgs& a, Streams io) {
   std::vector<std::string> names;
   for (const DemandCase& c : cases) names.push_back(c.name);
   Comparison cmp = compare_networks(before, after, names, a.flags.options(), criteria);
+  if (!a.catalogue.empty()) {
+    CatalogueResult cat = parse_catalogue_file(a.catalogue, before.headloss.law);
+    for (const Diagnostic& d : cat.errors) io.err << d.format() << "\n";
+    if (!cat.ok()) return kExitInput;
+    price_changes(cat.catalogue, &cmp);
+  }
   std::string title = a.file;
   for (const std::string& c : a.applies) title += " + " + c;
   io.out << compare_text(before, cmp, title);
@@ -66,6 +74,7 @@ CommandSpec compare_command() {
             app->add_option("--apply", a->applies, "change set to apply (repeatable, in order)")
                 ->required();
             app->add_option("--json", a->json_path, "also write the comparison as JSON to PATH");
+            app->add_option("--catalogue", a->catalogue, "price new or resized pipe from a catalogue");
             a->flags.add_to(app);
             return [a](Streams io) { return run_compare(*a, io); };
           }};

@@ -71,16 +71,32 @@ std::string compare_text(const Network& net, const Comparison& cmp, const std::s
     out += "  newly failing  " + id_list(c.newly_failing) + "\n";
   }
   out += "\nnew or resized pipe\n";
-  double total = 0.0;
+  double total = 0.0, cost = 0.0;
+  int unpriced = 0;
   for (const LengthByDiameter& d : cmp.new_or_resized) {
-    std::snprintf(line, sizeof line, "  D %7.1f %-3s %10.1f %-3s (%d pipes)\n", d.diameter_m * dia.per_si,
+    std::snprintf(line, sizeof line, "  D %7.1f %-3s %10.1f %-3s (%d pipes)", d.diameter_m * dia.per_si,
                   dia.name, d.length_m * len.per_si, len.name, d.pipes);
     out += line;
+    if (d.cost) {
+      std::snprintf(line, sizeof line, "  cost %.0f", *d.cost);
+      out += line;
+      cost += *d.cost;
+    } else if (cmp.priced) {
+      out += "  no catalogue item of this diameter";
+      unpriced += d.pipes;
+    }
+    out += "\n";
     total += d.length_m;
   }
   std::snprintf(line, sizeof line, "  total       %10.1f %s\n", total * len.per_si, len.name);
   out += line;
-  out += "  cost: not computed (no pipe catalogue given)\n\n";
+  if (!cmp.priced) {
+    out += "  cost: not computed (give --catalogue)\n\n";
+  } else {
+    std::snprintf(line, sizeof line, "  cost        %.0f%s\n\n", cost,
+                  unpriced ? " (some pipes unpriced)" : "");
+    out += line;
+  }
   out += kCaution;
   return out;
 }
@@ -124,6 +140,8 @@ void write_compare_json(const Comparison& cmp, JsonStream* j) {
     j->field("diameter_m", d.diameter_m);
     j->field("length_m", d.length_m);
     j->field("pipes", d.pipes);
+    j->key("cost");
+    if (d.cost) j->value(*d.cost); else j->null();
     j->end_object();
   }
   j->end_array();
