@@ -15,9 +15,21 @@ find networks tests -name '*.gln' -exec cp {} build-fuzz/corpus-network/ \;
 find networks tests -name '*.chg' -exec cp {} build-fuzz/corpus-changes/ \;
 cp tests/fuzz_regressions/network/* build-fuzz/corpus-network/ 2>/dev/null || true
 cp tests/fuzz_regressions/changes/* build-fuzz/corpus-changes/ 2>/dev/null || true
+status=0
 for target in network changes; do
   echo "== fuzz_$target for $seconds s"
+  set +e
   build-fuzz/fuzz_$target build-fuzz/corpus-$target -max_total_time="$seconds" -max_len=4096 \
-    -timeout=10 -rss_limit_mb=2048 -artifact_prefix=build-fuzz/crashes/ -print_final_stats=1 2>&1 |
-    grep -E '^(#[0-9]+ +DONE|stat::number_of_executed_units|stat::peak_rss|==|SUMMARY|Done)|cov:' | tail -4
+    -timeout=10 -rss_limit_mb=2048 -artifact_prefix=build-fuzz/crashes/ -print_final_stats=1 \
+    > build-fuzz/fuzz_$target.log 2>&1
+  rc=$?
+  set -e
+  grep -E '^#[0-9]+ +DONE|stat::number_of_executed_units|stat::peak_rss|SUMMARY' \
+    build-fuzz/fuzz_$target.log | tail -4
+  if [ $rc -ne 0 ]; then
+    echo "fuzz_$target FAILED (exit $rc); see build-fuzz/fuzz_$target.log and build-fuzz/crashes/"
+    tail -40 build-fuzz/fuzz_$target.log
+    status=1
+  fi
 done
+exit $status
