@@ -7,6 +7,7 @@
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
+#include <cstdlib>
 #include <string>
 #include <vector>
 
@@ -58,13 +59,16 @@ int main(int argc, char** argv) {
   Eigen::VectorXd rhs = Eigen::VectorXd::Ones(plan.unknowns), x;
 
   std::vector<double> analyse, factor, solve_times;
+  const char* env = std::getenv("GRADELINE_BACKEND");
+  const CholeskyBackend backend = env && std::string(env) == "auto" ? CholeskyBackend::kCholmodAuto
+                                                                    : CholeskyBackend::kCholmodSimplicial;
   for (int i = 0; i < 3; ++i) {
-    auto chol = make_sparse_cholesky();
+    auto chol = make_sparse_cholesky(backend);
     auto t = Clock::now();
     chol->analyze(plan.matrix);
     analyse.push_back(since(t));
   }
-  auto chol = make_sparse_cholesky();
+  auto chol = make_sparse_cholesky(backend);
   chol->analyze(plan.matrix);
   for (int i = 0; i < repeats; ++i) {
     auto t = Clock::now();

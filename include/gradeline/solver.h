@@ -1,6 +1,7 @@
 // gradeline public API: the steady-state solve of a network.
 #pragma once
 
+#include <memory>
 #include <vector>
 
 #include "gradeline/network.h"
@@ -18,5 +19,27 @@ SolveResult solve(const Network& network, const SolveOptions& options = {});
 // nodes are ignored), for demand cases.
 SolveResult solve(const Network& network, const SolveOptions& options,
                   const std::vector<double>& demand_m3s);
+
+struct SolverCache;
+
+// Solves a sequence of networks that share one topology (demand cases, trial designs, change
+// sets that only resize or close pipes): the incidence, the assembly plan and the symbolic
+// factorisation are computed once and reused; a network of another topology is analysed afresh.
+// The previous solution's flows may be given as a warm start.
+class SolverSession {
+ public:
+  SolverSession();
+  ~SolverSession();
+  SolverSession(const SolverSession&) = delete;
+  SolverSession& operator=(const SolverSession&) = delete;
+
+  SolveResult solve(const Network& network, const SolveOptions& options,
+                    const std::vector<double>& demand_m3s,
+                    const std::vector<double>* initial_flows_m3s = nullptr);
+  int symbolic_analyses() const;
+
+ private:
+  std::unique_ptr<SolverCache> cache_;
+};
 
 }  // namespace gradeline

@@ -32,7 +32,8 @@ bool select_cases(const Network& net, const std::string& selection,
 }
 
 CaseOutcome run_case(const Network& net, const DemandCase& c, const SolveOptions& options,
-                     const CriteriaOverride& o) {
+                     const CriteriaOverride& o, SolverSession* session,
+                     const std::vector<double>* initial_flows) {
   CaseOutcome out;
   out.demand_case = c;
   out.criteria = criteria_for(net, c.name);
@@ -40,7 +41,8 @@ CaseOutcome run_case(const Network& net, const DemandCase& c, const SolveOptions
   if (o.max_pressure_m) out.criteria.max_pressure_m = o.max_pressure_m;
   if (o.max_velocity_ms) out.criteria.max_velocity_ms = o.max_velocity_ms;
   const std::vector<double> demand = case_demands(net, c);
-  out.result = solve(net, options, demand);
+  out.result = session ? session->solve(net, options, demand, initial_flows)
+                       : solve(net, options, demand);
   if (out.result.summary.converged()) {
     SelfCheck check = check_result(net, demand, out.result, options);
     if (!check.ok) {

@@ -24,7 +24,11 @@ using CriteriaOverride = Criteria;
 bool select_cases(const Network& network, const std::string& selection,
                   std::vector<DemandCase>* cases, std::string* error);
 
+// With a session, the symbolic analysis of earlier solves of the same topology is reused, and
+// `initial_flows_m3s` (when given) warm-starts the Newton iterations.
 CaseOutcome run_case(const Network& network, const DemandCase& demand_case,
-                     const SolveOptions& options, const CriteriaOverride& override_criteria);
+                     const SolveOptions& options, const CriteriaOverride& override_criteria,
+                     SolverSession* session = nullptr,
+                     const std::vector<double>* initial_flows_m3s = nullptr);
 
 }  // namespace gradeline

@@ -20,11 +20,12 @@ DemandCase case_named(const Network& net, const std::string& name) {
 }
 
 CaseComparison compare_case(const Network& before, const Network& after, const std::string& name,
-                            const SolveOptions& options, const CriteriaOverride& o) {
+                            const SolveOptions& options, const CriteriaOverride& o,
+                            SolverSession* before_session, SolverSession* after_session) {
   CaseComparison c;
   c.case_name = name;
-  c.before = run_case(before, case_named(before, name), options, o);
-  c.after = run_case(after, case_named(after, name), options, o);
+  c.before = run_case(before, case_named(before, name), options, o, before_session);
+  c.after = run_case(after, case_named(after, name), options, o, after_session);
   if (!c.solved()) return c;
   const SolveResult& rb = c.before.result;
   const SolveResult& ra = c.after.result;
@@ -65,8 +66,9 @@ Comparison compare_networks(const Network& before, const Network& after,
                             const std::vector<std::string>& case_names,
                             const SolveOptions& options, const CriteriaOverride& o) {
   Comparison out;
+  SolverSession before_session, after_session;  // one symbolic analysis per side
   for (const std::string& name : case_names) {
-    out.cases.push_back(compare_case(before, after, name, options, o));
+    out.cases.push_back(compare_case(before, after, name, options, o, &before_session, &after_session));
   }
   std::map<double, LengthByDiameter> by_diameter;
   for (const Pipe& p : after.pipes) {

@@ -83,8 +83,9 @@ int run_solve(const SolveArgs& a, Streams io) {
     return kExitInput;
   }
   std::vector<CaseOutcome> outcomes;
+  SolverSession session;  // the cases share one symbolic analysis
   for (const DemandCase& c : cases) {
-    outcomes.push_back(run_case(net, c, a.flags.options(), criteria));
+    outcomes.push_back(run_case(net, c, a.flags.options(), criteria, &session));
     const SolveSummary& s = outcomes.back().result.summary;
     if (a.timing) io.err << timing_text(s, parse_s);
     if (!s.converged()) {

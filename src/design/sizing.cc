@@ -55,6 +55,8 @@ class Sizer {
   Network work_;  // the network with the trial sizes
   std::vector<std::vector<SizeOption>> options_;
   std::map<Design, Evaluation> memo_;
+  SolverSession session_;                          // one topology: analyse once
+  std::vector<std::vector<double>> last_flows_;    // per case: warm start for the next trial
   long long solves_ = 0;
   double best_cost_ = std::numeric_limits<double>::infinity();
 };
@@ -71,9 +73,16 @@ const Evaluation& Sizer::evaluate(const Design& d) {
   Evaluation e;
   e.feasible = true;
   e.margin_m = std::numeric_limits<double>::infinity();
-  for (const DemandCase& c : problem_.cases) {
-    CaseOutcome o = run_case(work_, c, problem_.solve_options, problem_.criteria);
+  last_flows_.resize(problem_.cases.size());
+  for (std::size_t ci = 0; ci < problem_.cases.size(); ++ci) {
+    const DemandCase& c = problem_.cases[ci];
+    const std::vector<double>* warm = last_flows_[ci].empty() ? nullptr : &last_flows_[ci];
+    CaseOutcome o = run_case(work_, c, problem_.solve_options, problem_.criteria, &session_, warm);
     solves_ += 1;
+    if (o.result.summary.converged()) {
+      last_flows_[ci].resize(o.result.links.size());
+      for (std::size_t k = 0; k < o.result.links.size(); ++k) last_flows_[ci][k] = o.result.links[k].flow_m3s;
+    }
     if (!o.result.summary.converged()) {
       e.feasible = false;
       e.margin_m = -std::numeric_limits<double>::infinity();

@@ -9,6 +9,7 @@
 #include "model/topology.h"
 #include "solver/assembly.h"
 #include "solver/residuals.h"
+#include "solver/solver_cache.h"
 #include "solver/sparse_cholesky.h"
 
 namespace gradeline {
@@ -30,8 +31,10 @@ struct State {
 class GradientSolver {
  public:
   GradientSolver(const Network& net, const SolveOptions& options,
-                 const std::vector<double>& demand_m3s)
-      : net_(net), options_(options), given_demand_(demand_m3s) {}
+                 const std::vector<double>& demand_m3s, SolverCache* cache,
+                 const std::vector<double>* initial_flows)
+      : net_(net), options_(options), given_demand_(demand_m3s), cache_(*cache),
+        initial_flows_(initial_flows) {}
   SolveResult run();
 
  private:
@@ -50,9 +53,8 @@ class GradientSolver {
   const SolveOptions& options_;
   const std::vector<double>& given_demand_;
   std::vector<PipeLaw> laws_;
-  Topology topology_;
-  AssemblyPlan plan_;
-  std::unique_ptr<SparseCholesky> cholesky_;
+  SolverCache& cache_;
+  const std::vector<double>* initial_flows_;
   std::vector<char> file_open_, cv_closed_, link_open_, supplied_, unsupplied_, active_;
   std::vector<int> toggles_;
   std::vector<double> demand_, headloss_, dh_dq_, conductance_;
@@ -64,7 +66,7 @@ class GradientSolver {
 
 void GradientSolver::update_active_set() {
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) link_open_[k] = file_open_[k] && !cv_closed_[k];
-  supplied_ = find_supplied(net_, topology_, link_open_);
+  supplied_ = find_supplied(net_, cache_.topology, link_open_);
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) unsupplied_[n] = !supplied_[n];
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
     active_[k] = link_open_[k] && supplied_[net_.pipes[k].from];
@@ -90,17 +92,17 @@ bool GradientSolver::newton_step(State* next) {
   auto t = Clock::now();
   const std::size_t links = net_.pipes.size();
   for (std::size_t k = 0; k < links; ++k) conductance_[k] = active_[k] ? 1.0 / dh_dq_[k] : 0.0;
-  assemble_matrix(conductance_, unsupplied_, &plan_);
+  assemble_matrix(conductance_, unsupplied_, &cache_.plan);
   rhs_.setZero();
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
-    const int u = plan_.unknown_of_node[n];
+    const int u = cache_.plan.unknown_of_node[n];
     if (u >= 0 && supplied_[n]) rhs_[u] = -demand_[n];
   }
   for (std::size_t k = 0; k < links; ++k) {
     if (!active_[k]) continue;
     const Pipe& p = net_.pipes[k];
-    const int a = plan_.unknown_of_node[p.from];
-    const int b = plan_.unknown_of_node[p.to];
+    const int a = cache_.plan.unknown_of_node[p.from];
+    const int b = cache_.plan.unknown_of_node[p.to];
     double y = headloss_[k];  // h(Q) - B0 H0
     if (a < 0) y -= next->head[p.from];
     if (b < 0) y += next->head[p.to];
@@ -110,19 +112,19 @@ bool GradientSolver::newton_step(State* next) {
   }
   timing_.assembly_s += seconds_since(t);
 
-  if (plan_.unknowns > 0) {  // with only fixed-head nodes there is no system to solve
+  if (cache_.plan.unknowns > 0) {  // with only fixed-head nodes there is no system to solve
     t = Clock::now();
-    const bool factored = cholesky_->factorize(plan_.matrix);
+    const bool factored = cache_.cholesky->factorize(cache_.plan.matrix);
     timing_.numeric_factor_s += seconds_since(t);
     if (!factored) return false;
     t = Clock::now();
-    const bool solved = cholesky_->solve(rhs_, &x_);
+    const bool solved = cache_.cholesky->solve(rhs_, &x_);
     timing_.triangular_solve_s += seconds_since(t);
     if (!solved) return false;
   }
 
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
-    const int u = plan_.unknown_of_node[n];
+    const int u = cache_.plan.unknown_of_node[n];
     if (u >= 0) next->head[n] = supplied_[n] ? x_[u] : 0.0;
   }
   for (std::size_t k = 0; k < links; ++k) {
@@ -184,7 +186,8 @@ SolveResult GradientSolver::run() {
   for (const Pipe& p : net_.pipes) {
     laws_.push_back(make_pipe_law(p, net_.headloss, net_.fluid, options_.hw_regularisation_flow_m3s));
   }
-  topology_ = build_topology(net_);
+  const bool reuse = cache_.matches(net_);
+  if (!reuse) cache_.topology = build_topology(net_);
   file_open_ = links_open_in_file(net_);
   cv_closed_.assign(links, 0);
   toggles_.assign(links, 0);
@@ -195,9 +198,9 @@ SolveResult GradientSolver::run() {
   timing_.topology_s = seconds_since(t);
 
   t = Clock::now();
-  plan_ = plan_assembly(net_);
-  cholesky_ = make_sparse_cholesky();
-  const bool analysed = plan_.unknowns == 0 || cholesky_->analyze(plan_.matrix);
+  cache_.plan = plan_assembly(net_);
+  cache_.cholesky = make_sparse_cholesky();
+  const bool analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
   timing_.symbolic_s = seconds_since(t);
 
   State s;
@@ -218,13 +221,16 @@ SolveResult GradientSolver::run() {
   for (std::size_t n = 0; n < nodes; ++n) {
     if (!net_.nodes[n].is_fixed_head()) s.head[n] = mean_fixed;
   }
+  const bool warm = initial_flows_ != nullptr && initial_flows_->size() == links;
   for (std::size_t k = 0; k < links; ++k) {
-    if (active_[k]) s.flow[k] = kInitialVelocity_ms * laws_[k].area_m2;
+    if (!active_[k]) continue;
+    s.flow[k] = warm ? (*initial_flows_)[k] : kInitialVelocity_ms * laws_[k].area_m2;
+    if (warm && s.flow[k] == 0.0) s.flow[k] = 1e-3 * kInitialVelocity_ms * laws_[k].area_m2;
   }
   headloss_.assign(links, 0.0);
   dh_dq_.assign(links, 0.0);
   conductance_.assign(links, 0.0);
-  rhs_.resize(plan_.unknowns);
+  rhs_.resize(cache_.plan.unknowns);
   if (!analysed) return finish(s, Termination::kLinearSolverFailed, "symbolic analysis failed");
 
   bool evaluated = false;
@@ -357,8 +363,9 @@ std::string SolveOptions::validate() const {
   return "";
 }
 
-SolveResult solve(const Network& network, const SolveOptions& options,
-                  const std::vector<double>& demand_m3s) {
+SolveResult solve_with_cache(const Network& network, const SolveOptions& options,
+                             const std::vector<double>& demand_m3s, SolverCache* cache,
+                             const std::vector<double>* initial_flows) {
   std::string invalid = options.validate();
   if (invalid.empty() && demand_m3s.size() != network.nodes.size()) {
     invalid = "one demand per node is needed";
@@ -369,8 +376,25 @@ SolveResult solve(const Network& network, const SolveOptions& options,
     r.summary.message = invalid;
     return r;
   }
-  return GradientSolver(network, options, demand_m3s).run();
+  return GradientSolver(network, options, demand_m3s, cache, initial_flows).run();
 }
+
+SolveResult solve(const Network& network, const SolveOptions& options,
+                  const std::vector<double>& demand_m3s) {
+  SolverCache cache;
+  return solve_with_cache(network, options, demand_m3s, &cache, nullptr);
+}
+
+SolverSession::SolverSession() : cache_(std::make_unique<SolverCache>()) {}
+SolverSession::~SolverSession() = default;
+
+SolveResult SolverSession::solve(const Network& network, const SolveOptions& options,
+                                 const std::vector<double>& demand_m3s,
+                                 const std::vector<double>* initial_flows_m3s) {
+  return solve_with_cache(network, options, demand_m3s, cache_.get(), initial_flows_m3s);
+}
+
+int SolverSession::symbolic_analyses() const { return cache_->analyses; }
 
 SolveResult solve(const Network& network, const SolveOptions& options) {
   std::vector<double> demand(network.nodes.size());

@@ -24,6 +24,7 @@ class SparseCholesky {
 
 enum class CholeskyBackend {
   kCholmodSimplicial,  // CHOLMOD LDL^T with AMD ordering (SuiteSparse)
+  kCholmodAuto,        // CHOLMOD, supernodal or simplicial as its analysis decides
   kEigenSimplicial,    // Eigen's own LDL^T with AMD ordering, for cross-checks
 };
 
