@@ -198,9 +198,15 @@ SolveResult GradientSolver::run() {
   timing_.topology_s = seconds_since(t);
 
   t = Clock::now();
-  cache_.plan = plan_assembly(net_);
-  cache_.cholesky = make_sparse_cholesky();
-  const bool analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
+  if (!reuse) {
+    // The pattern depends on the topology only: plan and analyse once, refactorise after.
+    cache_.plan = plan_assembly(net_);
+    cache_.cholesky = make_sparse_cholesky();
+    cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
+    cache_.remember(net_);
+    ++cache_.analyses;
+  }
+  const bool analysed = cache_.analysed;
   timing_.symbolic_s = seconds_since(t);
 
   State s;
