@@ -113,8 +113,11 @@ struct Network {
   // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
   void reindex();
   std::size_t add_node(Node node);
-  void reserve(std::size_t nodes, std::size_t pipes);
   std::size_t add_pipe(Pipe pipe);
+  // Adds unless the ID is taken; then returns nullopt and leaves the network as it was.
+  std::optional<std::size_t> try_add_node(Node node);
+  std::optional<std::size_t> try_add_pipe(Pipe pipe);
+  void reserve(std::size_t nodes, std::size_t pipes);
 
  private:
   std::unordered_map<std::string, std::size_t> node_index_;

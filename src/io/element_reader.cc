@@ -204,28 +204,28 @@ bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostic
 }
 
 bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net, Diagnostics* d) {
-  const SourceLocation& w = p.pipe.where;
-  if (auto existing = net->find_pipe(p.pipe.id)) {
-    const SourceLocation& first = net->pipes[*existing].where;
-    error(d, w,
-          "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file + ":" +
-              std::to_string(first.line) + ")");
-    return false;
-  }
+  const SourceLocation w = p.pipe.where;
   const std::optional<std::size_t> from = net->find_node(p.from_id);
   const std::optional<std::size_t> to = net->find_node(p.to_id);
   if (!from) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.from_id + "'");
   if (!to) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.to_id + "'");
-  if (!from || !to) return false;
-  p.pipe.from = *from;
-  p.pipe.to = *to;
+  p.pipe.from = from.value_or(0);
+  p.pipe.to = to.value_or(0);
   if (!p.roughness_given) p.pipe.roughness_m = defaults.roughness_m;
   if (!p.cfactor_given) p.pipe.cfactor = defaults.cfactor;
   if (!p.minor_given && defaults.minor_k) p.pipe.minor_k = *defaults.minor_k;
   const bool given = net->headloss.law == HeadlossLaw::kDarcyWeisbach ? p.roughness_given
                                                                       : p.cfactor_given;
-  bool ok = check_pipe(p.pipe, net->headloss.law, given, d);
-  net->add_pipe(std::move(p.pipe));
+  if (!from || !to) return false;
+  const bool ok = check_pipe(p.pipe, net->headloss.law, given, d);
+  const std::string id = p.pipe.id;
+  if (!net->try_add_pipe(std::move(p.pipe))) {
+    const SourceLocation& first = net->pipes[*net->find_pipe(id)].where;
+    error(d, w,
+          "duplicate pipe ID '" + id + "' (first defined at " + first.file + ":" +
+              std::to_string(first.line) + ")");
+    return false;
+  }
   return ok;
 }
 

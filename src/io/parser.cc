@@ -51,7 +51,7 @@ class NetworkParser {
   void pipe(const Statement& s, const std::string& file);
   void include(const Statement& s, const std::string& file, int depth);
   ReadContext context(const std::string& file) { return {file, net_.units, &diagnostics_}; }
-  bool claim_node_id(const std::string& id, const SourceLocation& where);
+  bool add_node(Node n, std::size_t* index);
   void error(const std::string& file, int line, std::string message) {
     diagnostics_.error(file, line, std::move(message));
   }
@@ -224,29 +224,33 @@ void NetworkParser::defaults(const Statement& s, const std::string& file) {
   if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) defaults_.minor_k = v;
 }
 
-bool NetworkParser::claim_node_id(const std::string& id, const SourceLocation& where) {
-  if (auto existing = net_.find_node(id)) {
-    const SourceLocation& first = net_.nodes[*existing].where;
-    error(where.file, where.line,
-          "duplicate node ID '" + id + "' (first defined at " + first.file + ":" +
-              std::to_string(first.line) + ")");
-    return false;
+bool NetworkParser::add_node(Node n, std::size_t* index) {
+  const SourceLocation where = n.where;
+  const std::string id = n.id;
+  if (auto added = net_.try_add_node(std::move(n))) {
+    *index = *added;
+    return true;
   }
-  return true;
+  const SourceLocation& first = net_.nodes[*net_.find_node(id)].where;
+  error(where.file, where.line,
+        "duplicate node ID '" + id + "' (first defined at " + first.file + ":" +
+            std::to_string(first.line) + ")");
+  return false;
 }
 
 void NetworkParser::reservoir(const Statement& s, const std::string& file) {
   units_locked_ = true;
   std::optional<ReservoirRead> r = read_reservoir(s, context(file));
-  if (!r || !claim_node_id(r->node.id, r->node.where)) return;
-  std::size_t index = net_.add_node(std::move(r->node));
+  std::size_t index = 0;
+  if (!r || !add_node(std::move(r->node), &index)) return;
   if (r->pressure) pending_reservoirs_.push_back({index, *r->pressure});
 }
 
 void NetworkParser::node(const Statement& s, const std::string& file) {
   units_locked_ = true;
   std::optional<Node> n = read_junction(s, context(file));
-  if (n && claim_node_id(n->id, n->where)) net_.add_node(std::move(*n));
+  std::size_t index = 0;
+  if (n) add_node(std::move(*n), &index);
 }
 
 void NetworkParser::pipe(const Statement& s, const std::string& file) {

@@ -37,6 +37,20 @@ std::size_t Network::add_node(Node node) {
   return index;
 }
 
+std::optional<std::size_t> Network::try_add_node(Node node) {
+  auto [it, inserted] = node_index_.try_emplace(node.id, nodes.size());
+  if (!inserted) return std::nullopt;
+  nodes.push_back(std::move(node));
+  return it->second;
+}
+
+std::optional<std::size_t> Network::try_add_pipe(Pipe pipe) {
+  auto [it, inserted] = pipe_index_.try_emplace(pipe.id, pipes.size());
+  if (!inserted) return std::nullopt;
+  pipes.push_back(std::move(pipe));
+  return it->second;
+}
+
 std::size_t Network::add_pipe(Pipe pipe) {
   std::size_t index = pipes.size();
   pipe_index_.emplace(pipe.id, index);

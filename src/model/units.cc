@@ -101,11 +101,20 @@ const char* default_unit(Dimension d, UnitSystem s) {
   return "";
 }
 
+bool equal_ignoring_case(std::string_view a, const char* lower) {
+  std::size_t i = 0;
+  for (; i < a.size(); ++i) {
+    if (lower[i] == '\0' ||
+        std::tolower(static_cast<unsigned char>(a[i])) != static_cast<unsigned char>(lower[i])) {
+      return false;
+    }
+  }
+  return lower[i] == '\0';
+}
+
 const UnitEntry* find_unit(std::string_view name) {
-  std::string lower(name);
-  for (char& c : lower) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   for (const UnitEntry& u : kUnits) {
-    if (lower == u.name) return &u;
+    if (equal_ignoring_case(name, u.name)) return &u;
   }
   return nullptr;
 }
