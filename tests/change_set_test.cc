@@ -113,7 +113,7 @@ TEST_CASE("change-set errors, exactly") {
   CHECK(errors("add pipe P9 A Z length=1 diameter=100 roughness=0\n") ==
         "up.chg:1: error: pipe 'P9' refers to unknown node 'Z'\n");
   CHECK(errors("add node A elevation=1\n") == "up.chg:1: error: add: node 'A' already exists\n");
-  CHECK(errors("add valve V1\n") == "up.chg:1: error: add needs an element: pipe, node or reservoir\n");
+  CHECK(errors("add valve V1\n") == "up.chg:1: error: add needs an element: pipe, pump, node, reservoir or tank\n");
   CHECK(errors("remove node B\n") ==
         "up.chg:1: error: remove: node 'B' still has pipe 'P2'; remove it first\n");
   CHECK(errors("modfy P2 diameter=1\n") ==

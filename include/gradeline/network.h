@@ -15,7 +15,7 @@ namespace gradeline {
 
 enum class UnitSystem { kSI, kUS };
 
-enum class NodeKind { kJunction, kReservoir };
+enum class NodeKind { kJunction, kReservoir, kTank };
 
 struct Point {
   double x = 0.0;
@@ -34,17 +34,38 @@ struct Node {
   double elevation_m = 0.0;  // ground / pipe invert reference for pressure
   double demand_m3s = 0.0;   // base demand, positive out of the network
   std::string demand_category;  // empty: uncategorised
-  double head_m = 0.0;       // fixed hydraulic grade line, reservoirs only
+  double head_m = 0.0;       // fixed hydraulic grade line, reservoirs and tanks
+  // Tanks (steady state): head = bottom (elevation_m) + level.
+  double level_m = 0.0;
+  double min_level_m = 0.0;
+  std::optional<double> max_level_m;
+  std::optional<double> tank_diameter_m;
   std::optional<Point> at;
   SourceLocation where;
 
-  bool is_fixed_head() const { return kind == NodeKind::kReservoir; }
+  bool is_fixed_head() const { return kind != NodeKind::kJunction; }
+  // A tank at or below its minimum level cannot supply: it may only receive.
+  bool receives_only() const { return kind == NodeKind::kTank && level_m <= min_level_m; }
 };
 
 enum class LinkStatus { kOpen, kClosed };
 
+enum class LinkKind { kPipe, kPump };
+
+// A pump's head-flow curve at full speed, H = a - b Q^c (H in m, Q in m^3/s), fitted through the
+// points given. At relative speed s the affinity laws give H = a s^2 - b s^(2-c) Q^c.
+struct PumpCurve {
+  double shutoff_head_m = 0.0;  // a
+  double coefficient = 0.0;     // b
+  double exponent = 2.0;        // c
+  double max_curve_flow_m3s = 0.0;  // the largest flow of the points given (full speed)
+  std::vector<std::pair<double, double>> points;  // (Q m^3/s, H m) as given
+};
+
+// A link: a pipe, or a pump (which has no length or diameter of its own).
 struct Pipe {
   std::string id;
+  LinkKind kind = LinkKind::kPipe;
   std::size_t from = 0;  // index into Network::nodes
   std::size_t to = 0;
   double length_m = 0.0;
@@ -55,6 +76,12 @@ struct Pipe {
   LinkStatus status = LinkStatus::kOpen;
   bool check_valve = false;  // flow only from `from` to `to`
   bool resizable = false;    // marked for `gradeline size` (resize=yes)
+  // Pumps only.
+  PumpCurve curve;
+  double speed = 1.0;                 // relative to the curve's speed
+  std::optional<double> efficiency;   // 0-1, for the shaft power
+
+  bool is_pump() const { return kind == LinkKind::kPump; }
   SourceLocation where;
 };
 

@@ -72,6 +72,7 @@ Comparison compare_networks(const Network& before, const Network& after,
   }
   std::map<double, LengthByDiameter> by_diameter;
   for (const Pipe& p : after.pipes) {
+    if (p.is_pump()) continue;
     auto old = before.find_pipe(p.id);
     if (old && before.pipes[*old].diameter_m == p.diameter_m) continue;
     LengthByDiameter& entry = by_diameter[p.diameter_m];

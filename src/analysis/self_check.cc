@@ -28,15 +28,17 @@ SelfCheck check_result(const Network& net, const std::vector<double>& demand,
     if (!l.open && l.flow_m3s != 0.0) return fail("closed pipe '" + p.id + "' carries flow");
     balance[p.from] -= l.flow_m3s;
     balance[p.to] += l.flow_m3s;
+    PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
     if (!l.open) {
       const NodeState &a = r.nodes[p.from], &b = r.nodes[p.to];
-      if (l.closed_by_check_valve && a.supplied && b.supplied &&
-          a.head_m > b.head_m + kSelfCheckSlack * options.energy_tolerance_m) {
-        return fail("check valve '" + p.id + "' is closed with a head favouring forward flow");
+      const bool at_empty_tank = net.nodes[p.from].receives_only() || net.nodes[p.to].receives_only();
+      if (l.closed_by_check_valve && p.check_valve && !at_empty_tank && a.supplied && b.supplied &&
+          a.head_m - b.head_m - law.zero_flow_headloss_m > kSelfCheckSlack * options.energy_tolerance_m) {
+        return fail(std::string(p.is_pump() ? "pump '" : "check valve '") + p.id +
+                    "' is closed with a head favouring forward flow");
       }
       continue;
     }
-    PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
     const double h = evaluate_pipe(law, l.flow_m3s).headloss_m;
     const double e = h - (r.nodes[p.from].head_m - r.nodes[p.to].head_m);
     const double tolerance = kSelfCheckSlack * options.energy_tolerance_m;

@@ -26,7 +26,9 @@ struct SizeArgs {
 bool candidate_pipes(const Network& net, const std::string& spec, Streams io,
                      std::vector<std::size_t>* out) {
   if (spec == "all") {
-    for (std::size_t k = 0; k < net.pipes.size(); ++k) out->push_back(k);
+    for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+      if (!net.pipes[k].is_pump()) out->push_back(k);
+    }
     return true;
   }
   if (spec.empty()) {
@@ -42,7 +44,7 @@ bool candidate_pipes(const Network& net, const std::string& spec, Streams io,
   std::stringstream list(spec);
   for (std::string id; std::getline(list, id, ',');) {
     auto k = net.find_pipe(id);
-    if (!k) {
+    if (!k || net.pipes[*k].is_pump()) {
       io.err << "gradeline: error: --pipes: no pipe '" << id << "' in the network\n";
       return false;
     }

@@ -12,6 +12,16 @@ constexpr double kPi = 3.14159265358979323846;
 PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid& fluid,
                       double hw_regularisation_flow_m3s) {
   PipeLaw p;
+  if (pipe.is_pump()) {
+    const double s = pipe.speed;
+    const PumpCurve& c = pipe.curve;
+    p.pump = true;
+    p.pump_gain_m = c.shutoff_head_m * s * s;
+    p.pump_coefficient = c.coefficient * std::pow(s, 2.0 - c.exponent);
+    p.pump_exponent = c.exponent;
+    p.zero_flow_headloss_m = -p.pump_gain_m;
+    return p;
+  }
   p.law = model.law;
   p.length_m = pipe.length_m;
   p.diameter_m = pipe.diameter_m;
@@ -35,6 +45,15 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
 
 LinkEval evaluate_pipe(const PipeLaw& p, double flow) {
   LinkEval e;
+  if (p.pump) {
+    const double q0 = kPumpRegularisationFlow_m3s;
+    const double c = p.pump_exponent;
+    const double sq = flow * flow + q0 * q0;
+    const double base = p.pump_coefficient * std::pow(sq, 0.5 * (c - 3.0));
+    e.headloss_m = -p.pump_gain_m + base * sq * flow;
+    e.dh_dq = base * (c * flow * flow + q0 * q0);
+    return e;
+  }
   const double q = std::abs(flow);
   const double sign = flow < 0.0 ? -1.0 : 1.0;
   e.reynolds = q * p.reynolds_per_flow;

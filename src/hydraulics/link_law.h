@@ -12,6 +12,13 @@
 //   The relative change in h is below 1e-10 for |Q| >= 1e-3 L/s, and dh/dQ(0) = k L q0^(n-1) /
 //   (C^n D^m) > 0.
 // Minor losses K V^2 / (2 g) are added under both laws.
+//
+// Pump (a head gain, so a negative loss), with the curve H = a - b Q^c at full speed and the
+// affinity laws at relative speed s (Q ~ s, H ~ s^2):
+//   h = -(a s^2 - b s^(2-c) g(Q)),   g(Q) = (Q^2 + q0^2)^((c-1)/2) Q,  q0 = 1e-6 m^3/s,
+// so dh/dQ = b s^(2-c) g'(Q) > 0 even at Q = 0, where the plain law's slope vanishes. The gain
+// changes by less than 1e-10 relative for Q >= 0.1 L/s. Reverse flow is prevented by the
+// solver (a pump closes like a check valve), so g only needs to be monotone there.
 #pragma once
 
 #include "gradeline/network.h"
@@ -34,7 +41,15 @@ struct PipeLaw {
   double hw_coef = 0.0;              // k L / (C^n D^m)
   double hw_exponent = 1.852;
   double hw_q0_m3s = 1e-8;
+  // Pumps.
+  bool pump = false;
+  double pump_gain_m = 0.0;      // a s^2
+  double pump_coefficient = 0.0; // b s^(2-c)
+  double pump_exponent = 2.0;    // c
+  double zero_flow_headloss_m = 0.0;  // h(0): 0 for a pipe, -a s^2 for a pump
 };
+
+inline constexpr double kPumpRegularisationFlow_m3s = 1e-6;
 
 PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid& fluid,
                       double hw_regularisation_flow_m3s);

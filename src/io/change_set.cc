@@ -122,6 +122,22 @@ void ChangeApplier::modify(const Statement& s) {
     error(s.line, "modify needs at least one key=value");
     return;
   }
+  if (target == Target::kPipe && net_->pipes[index].is_pump()) {
+    StatementOptions o(rest, {"speed", "efficiency", "status"}, file_, units_, &diagnostics_);
+    Pipe& pump = net_->pipes[index];
+    if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) pump.speed = *v;
+    if (auto v = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"})) {
+      pump.efficiency = v;
+    }
+    if (const std::string* status = o.find("status")) {
+      if (*status == "on" || *status == "off") {
+        pump.status = *status == "on" ? LinkStatus::kOpen : LinkStatus::kClosed;
+      } else {
+        o.error("status must be 'on' or 'off', got '" + *status + "'");
+      }
+    }
+    return;
+  }
   if (target == Target::kPipe) {
     StatementOptions o(rest, kPipeKeys, file_, units_, &diagnostics_);
     PipeRead p;
@@ -158,7 +174,7 @@ void ChangeApplier::set_status(const Statement& s, LinkStatus status) {
 
 void ChangeApplier::add(const Statement& s) {
   if (s.positional.empty()) {
-    error(s.line, "add needs an element: pipe, node or reservoir");
+    error(s.line, "add needs an element: pipe, pump, node, reservoir or tank");
     return;
   }
   Statement element = s;
@@ -171,10 +187,11 @@ void ChangeApplier::add(const Statement& s) {
     }
     return true;
   };
-  if (element.keyword == "pipe") {
-    if (auto p = read_pipe(element, context())) {
-      add_pipe_to_network(std::move(*p), PipeDefaults{}, net_, &diagnostics_);
-    }
+  if (element.keyword == "pipe" || element.keyword == "pump") {
+    auto p = element.keyword == "pipe" ? read_pipe(element, context()) : read_pump(element, context());
+    if (p) add_pipe_to_network(std::move(*p), PipeDefaults{}, net_, &diagnostics_);
+  } else if (element.keyword == "tank") {
+    if (auto n = read_tank(element, context()); n && claim(*n)) net_->add_node(std::move(*n));
   } else if (element.keyword == "node") {
     if (auto n = read_junction(element, context()); n && claim(*n)) net_->add_node(std::move(*n));
   } else if (element.keyword == "reservoir") {
@@ -183,7 +200,7 @@ void ChangeApplier::add(const Statement& s) {
       net_->add_node(std::move(r->node));
     }
   } else {
-    error(s.line, "add needs an element: pipe, node or reservoir");
+    error(s.line, "add needs an element: pipe, pump, node, reservoir or tank");
   }
 }
 

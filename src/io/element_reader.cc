@@ -1,6 +1,7 @@
 #include "io/element_reader.h"
 
 #include <algorithm>
+#include <cmath>
 #include <sstream>
 
 namespace gradeline {
@@ -180,7 +181,114 @@ std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c) {
   return p;
 }
 
+std::optional<Node> read_tank(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, {"bottom", "level", "min_level", "max_level", "diameter", "at"}, c.file,
+                     c.units, c.diagnostics);
+  if (!read_ids(s, 1, "an ID", c)) return std::nullopt;
+  Node n;
+  n.id = s.positional[0];
+  n.kind = NodeKind::kTank;
+  n.where = {c.file, s.line};
+  n.at = coordinates(o);
+  for (const char* key : {"bottom", "level"}) {
+    if (!o.has(key)) o.error("tank '" + n.id + "': missing required key '" + key + "'");
+  }
+  const Range level_range{0.0, 1000.0, true, "1000 m"};
+  if (auto z = o.quantity("bottom", Dimension::kLength, kElevationRange)) n.elevation_m = *z;
+  if (auto l = o.quantity("level", Dimension::kLength, level_range)) n.level_m = *l;
+  if (auto l = o.quantity("min_level", Dimension::kLength, level_range)) n.min_level_m = *l;
+  n.max_level_m = o.quantity("max_level", Dimension::kLength, level_range);
+  n.tank_diameter_m = o.quantity("diameter", Dimension::kLength, {0.0, 1000.0, false, "1000 m"});
+  if (n.max_level_m && n.level_m > *n.max_level_m) {
+    o.error("tank '" + n.id + "': level is above max_level");
+  }
+  if (n.max_level_m && n.min_level_m > *n.max_level_m) {
+    o.error("tank '" + n.id + "': min_level is above max_level");
+  }
+  n.head_m = n.elevation_m + n.level_m;
+  return n;
+}
+
+std::string fit_pump_curve(PumpCurve* c) {
+  const auto& p = c->points;
+  if (p.size() == 1) {
+    const double q = p[0].first, h = p[0].second;
+    if (!(q > 0.0 && h > 0.0)) return "a one-point curve needs a positive flow and head";
+    c->shutoff_head_m = 4.0 / 3.0 * h;
+    c->exponent = 2.0;
+    c->coefficient = (c->shutoff_head_m - h) / (q * q);
+    c->max_curve_flow_m3s = 2.0 * q;  // where this curve reaches zero head
+    return "";
+  }
+  if (p.size() != 3) return "curve= takes one design point or three points";
+  if (p[0].first != 0.0) return "a three-point curve starts at zero flow (the shut-off head)";
+  const double a = p[0].second;
+  const double q2 = p[1].first, h2 = p[1].second, q3 = p[2].first, h3 = p[2].second;
+  if (!(q2 > 0.0 && q3 > q2)) return "curve flows must increase";
+  if (!(a > h2 && h2 > h3 && h3 >= 0.0)) return "curve heads must fall as the flow rises";
+  const double exponent = std::log((a - h2) / (a - h3)) / std::log(q2 / q3);
+  if (!(exponent > 0.0 && exponent <= 10.0)) return "these points give no curve H = a - b Q^c";
+  c->shutoff_head_m = a;
+  c->exponent = exponent;
+  c->coefficient = (a - h2) / std::pow(q2, exponent);
+  c->max_curve_flow_m3s = q3;
+  return "";
+}
+
+std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, {"curve", "speed", "efficiency", "status"}, c.file, c.units, c.diagnostics);
+  if (!read_ids(s, 3, "ID FROM TO", c)) return std::nullopt;
+  PipeRead p;
+  p.pipe.id = s.positional[0];
+  p.pipe.kind = LinkKind::kPump;
+  p.pipe.check_valve = true;  // a pump never runs backwards
+  p.from_id = s.positional[1];
+  p.to_id = s.positional[2];
+  p.pipe.where = {c.file, s.line};
+  p.roughness_given = p.cfactor_given = true;  // no friction law applies
+  if (!o.has("curve")) o.error("pump '" + p.pipe.id + "': missing required key 'curve'");
+  if (const std::string* curve = o.find("curve")) {
+    std::size_t start = 0;
+    bool ok = true;
+    while (ok && start <= curve->size()) {
+      std::size_t comma = curve->find(',', start);
+      std::string point = curve->substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+      std::size_t colon = point.find(':');
+      if (colon == std::string::npos) {
+        o.error("curve points are FLOW:HEAD, got '" + point + "'");
+        ok = false;
+        break;
+      }
+      auto q = o.parse("curve", point.substr(0, colon), Dimension::kFlow, {0.0, 100.0, true, "100 m3/s"});
+      auto h = o.parse("curve", point.substr(colon + 1), Dimension::kLength, {0.0, 5000.0, true, "5000 m"});
+      if (!q || !h) ok = false; else p.pipe.curve.points.emplace_back(*q, *h);
+      if (comma == std::string::npos) break;
+      start = comma + 1;
+    }
+    if (ok) {
+      std::string why = fit_pump_curve(&p.pipe.curve);
+      if (!why.empty()) o.error("pump '" + p.pipe.id + "': " + why);
+    }
+  }
+  if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) p.pipe.speed = *v;
+  p.pipe.efficiency = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"});
+  if (const std::string* status = o.find("status")) {
+    if (*status == "open" || *status == "on") {
+      p.pipe.status = LinkStatus::kOpen;
+    } else if (*status == "closed" || *status == "off") {
+      p.pipe.status = LinkStatus::kClosed;
+    } else {
+      o.error("status must be 'on' or 'off', got '" + *status + "'");
+    }
+  }
+  if (p.from_id == p.to_id) {
+    o.error("pump '" + p.pipe.id + "' connects node '" + p.from_id + "' to itself");
+  }
+  return p;
+}
+
 bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostics* d) {
+  if (p.is_pump()) return true;
   bool ok = true;
   if (law == HeadlossLaw::kDarcyWeisbach && !p.roughness_m && !law_value_given) {
     error(d, p.where,

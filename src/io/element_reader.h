@@ -60,6 +60,13 @@ bool read_ids(const Statement& s, std::size_t count, const char* shape, const Re
 std::optional<ReservoirRead> read_reservoir(const Statement& s, const ReadContext& c);
 std::optional<Node> read_junction(const Statement& s, const ReadContext& c);
 std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c);
+// `tank ID bottom=Z level=L [min_level=L] [max_level=L] [diameter=D] [at=X,Y]`
+std::optional<Node> read_tank(const Statement& s, const ReadContext& c);
+// `pump ID FROM TO curve=Q:H[,Q:H,Q:H] [speed=S] [efficiency=E] [status=open|closed]`
+std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c);
+// Fits H = a - b Q^c: through one design point (a = 4/3 H, c = 2: common practice), or three
+// points starting at Q = 0. Returns an error message, or "" on success.
+std::string fit_pump_curve(PumpCurve* curve);
 
 // The keys a pipe statement accepts other than length and diameter requirements; used by
 // `modify`. Only the keys present are changed.

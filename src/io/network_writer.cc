@@ -53,7 +53,12 @@ std::string write_network(const Network& net) {
         << " density=" << with_unit(net.fluid.density_kgm3, "kg/m3") << "\n";
   }
   for (const Node& n : net.nodes) {
-    if (n.is_fixed_head()) {
+    if (n.kind == NodeKind::kTank) {
+      out << "tank " << n.id << " bottom=" << with_unit(n.elevation_m, "m")
+          << " level=" << with_unit(n.level_m, "m") << " min_level=" << with_unit(n.min_level_m, "m");
+      if (n.max_level_m) out << " max_level=" << with_unit(*n.max_level_m, "m");
+      if (n.tank_diameter_m) out << " diameter=" << with_unit(*n.tank_diameter_m, "m");
+    } else if (n.is_fixed_head()) {
       out << "reservoir " << n.id << " head=" << with_unit(n.head_m, "m")
           << " elevation=" << with_unit(n.elevation_m, "m");
     } else {
@@ -67,6 +72,18 @@ std::string write_network(const Network& net) {
     out << "\n";
   }
   for (const Pipe& p : net.pipes) {
+    if (p.is_pump()) {
+      out << "pump " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id << " curve=";
+      for (std::size_t i = 0; i < p.curve.points.size(); ++i) {
+        out << (i ? "," : "") << with_unit(p.curve.points[i].first, "m3/s") << ":"
+            << with_unit(p.curve.points[i].second, "m");
+      }
+      if (p.speed != 1.0) out << " speed=" << exact_number(p.speed);
+      if (p.efficiency) out << " efficiency=" << exact_number(*p.efficiency);
+      if (p.status == LinkStatus::kClosed) out << " status=off";
+      out << "\n";
+      continue;
+    }
     out << "pipe " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id
         << " length=" << with_unit(p.length_m, "m") << " diameter=" << with_unit(p.diameter_m, "m");
     if (p.roughness_m) out << " roughness=" << with_unit(*p.roughness_m, "m");

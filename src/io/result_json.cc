@@ -1,5 +1,6 @@
 #include "io/result_json.h"
 
+#include "report/pump_point.h"
 #include "report/result_totals.h"
 
 namespace gradeline {
@@ -56,7 +57,13 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
     const NodeState& ns = r.nodes[n];
     j->begin_object();
     j->field("id", node.id);
-    j->field("kind", node.is_fixed_head() ? "reservoir" : "node");
+    j->field("kind", node.kind == NodeKind::kTank      ? "tank"
+                     : node.kind == NodeKind::kReservoir ? "reservoir"
+                                                         : "node");
+    if (node.kind == NodeKind::kTank) {
+      j->field("level_m", node.level_m);
+      j->field("can_supply", !node.receives_only());
+    }
     j->field("elevation_m", node.elevation_m);
     j->field("head_m", ns.head_m);
     j->field("pressure_m", ns.pressure_m);
@@ -73,7 +80,7 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
     const LinkState& ls = r.links[k];
     j->begin_object();
     j->field("id", p.id);
-    j->field("kind", "pipe");
+    j->field("kind", p.is_pump() ? "pump" : "pipe");
     j->field("from", net.nodes[p.from].id);
     j->field("to", net.nodes[p.to].id);
     j->field("flow_m3s", ls.flow_m3s);
@@ -84,6 +91,17 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
     j->field("friction_factor", ls.friction_factor);
     j->field("regime", regime_name(ls.regime));
     j->field("status", link_status(p, ls));
+    if (p.is_pump()) {
+      const PumpPoint pp = pump_point(net, p, ls);
+      j->field("mode", pp.mode);
+      j->field("head_gain_m", pp.head_gain_m);
+      j->field("hydraulic_power_kW", pp.hydraulic_power_w * 1e-3);
+      j->key("shaft_power_kW");
+      if (p.efficiency) j->value(pp.hydraulic_power_w / *p.efficiency * 1e-3); else j->null();
+      j->field("on_curve", pp.on_curve);
+    } else {
+      j->field("mode", ls.open ? "open" : "closed");
+    }
     j->end_object();
   }
   j->end_array();

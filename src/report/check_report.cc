@@ -17,7 +17,14 @@ CheckFindings check_network(const Network& net) {
       f.total_demand_m3s += n.demand_m3s;
     }
   }
+  for (const Node& n : net.nodes) {
+    if (n.kind == NodeKind::kTank) ++f.tanks;
+  }
   for (const Pipe& p : net.pipes) {
+    if (p.is_pump()) {
+      ++f.pumps;
+      continue;
+    }
     if (p.status == LinkStatus::kOpen) ++f.pipes_open; else ++f.pipes_closed;
     if (p.check_valve) ++f.check_valves;
   }
@@ -42,9 +49,13 @@ std::string check_report_text(const Network& net, const CheckFindings& f, const 
   std::snprintf(line, sizeof line,
                 "elements    %zu junctions, %zu reservoirs, %zu pipes (%zu closed, %zu check "
                 "valves)\n",
-                f.junctions, f.reservoirs, f.pipes_open + f.pipes_closed, f.pipes_closed,
+                f.junctions, f.reservoirs - f.tanks, f.pipes_open + f.pipes_closed, f.pipes_closed,
                 f.check_valves);
   out += line;
+  if (f.tanks + f.pumps > 0) {
+    std::snprintf(line, sizeof line, "            %zu tanks, %zu pumps\n", f.tanks, f.pumps);
+    out += line;
+  }
   std::snprintf(line, sizeof line, "demand      %.3f %s in total\n",
                 f.total_demand_m3s * flow.per_si, flow.name);
   out += line;

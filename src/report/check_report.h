@@ -14,6 +14,8 @@ struct CheckFindings {
   std::size_t pipes_open = 0;
   std::size_t pipes_closed = 0;
   std::size_t check_valves = 0;
+  std::size_t tanks = 0;  // counted among the fixed-head nodes too
+  std::size_t pumps = 0;
   std::size_t islands = 0;
   std::vector<std::size_t> unsupplied;  // node indices
   double total_demand_m3s = 0.0;

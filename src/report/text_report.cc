@@ -6,10 +6,13 @@
 
 #include "gradeline/version.h"
 #include "model/units.h"
+#include "report/pump_point.h"
 #include "report/result_totals.h"
 
 namespace gradeline {
 namespace {
+
+bool p_closed_note(const Pipe& p) { return p.status != LinkStatus::kClosed; }
 
 void appendf(std::string* out, const char* format, ...) {
   char buffer[512];
@@ -21,6 +24,33 @@ void appendf(std::string* out, const char* format, ...) {
 }
 
 std::string rule(std::size_t width) { return std::string(width, '-') + "\n"; }
+
+std::string pumps_text(const Network& net, const SolveResult& r) {
+  const DisplayUnit flow = display_flow(net.units);
+  const DisplayUnit len = display_length(net.units);
+  std::string out;
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    const Pipe& p = net.pipes[k];
+    if (!p.is_pump()) continue;
+    if (out.empty()) {
+      out = "\npumps\n";
+      appendf(&out, "  %-10s %-10s %-10s %10s %9s %9s %9s %6s  %s\n", "id", "from", "to",
+              ("flow " + std::string(flow.name)).c_str(), ("gain " + std::string(len.name)).c_str(),
+              "hyd kW", "shaft kW", "speed", "mode");
+    }
+    const PumpPoint pp = pump_point(net, p, r.links[k]);
+    char shaft[32] = "-";
+    if (p.efficiency && r.links[k].open) {
+      std::snprintf(shaft, sizeof shaft, "%.2f", pp.hydraulic_power_w / *p.efficiency * 1e-3);
+    }
+    appendf(&out, "  %-10s %-10s %-10s %10.3f %9.2f %9.2f %9s %6.2f  %s%s\n", p.id.c_str(),
+            net.nodes[p.from].id.c_str(), net.nodes[p.to].id.c_str(),
+            r.links[k].flow_m3s * flow.per_si, pp.head_gain_m * len.per_si,
+            pp.hydraulic_power_w * 1e-3, shaft, p.speed, pp.mode,
+            pp.on_curve ? "" : ", OUTSIDE CURVE RANGE");
+  }
+  return out;
+}
 
 }  // namespace
 
@@ -103,6 +133,17 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
               std::abs(ls.velocity_ms) * vel.per_si, vel.name, kHighVelocity_ms * vel.per_si,
               vel.name);
     }
+    if (net.pipes[k].is_pump()) {
+      const PumpPoint pp = pump_point(net, net.pipes[k], ls);
+      if (ls.open && !pp.on_curve) {
+        appendf(&warnings, "  ! pump %s runs outside its curve's range (%.2f %s)\n",
+                net.pipes[k].id.c_str(), ls.flow_m3s * flow.per_si, flow.name);
+      }
+      if (!ls.open && p_closed_note(net.pipes[k])) {
+        appendf(&warnings, "  - pump %s is %s\n", net.pipes[k].id.c_str(), pp.mode);
+      }
+      continue;
+    }
     if (ls.closed_by_check_valve && listed(&check_closed)) {
       appendf(&warnings, "  - check valve on pipe %s is closed against reverse flow\n",
               net.pipes[k].id.c_str());
@@ -131,7 +172,9 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
     for (std::size_t n = 0; n < net.nodes.size(); ++n) {
       const Node& node = net.nodes[n];
       const NodeState& ns = r.nodes[n];
-      const char* note = node.is_fixed_head() ? "fixed head"
+      const char* note = node.kind == NodeKind::kTank  ? (node.receives_only() ? "tank, at min level"
+                                                                                : "tank")
+                         : node.is_fixed_head() ? "fixed head"
                          : !ns.supplied       ? "UNSUPPLIED"
                          : ns.pressure_m < 0  ? "NEGATIVE"
                                               : "";
@@ -156,6 +199,7 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
     for (std::size_t k = 0; k < net.pipes.size(); ++k) {
       const Pipe& p = net.pipes[k];
       const LinkState& ls = r.links[k];
+      if (p.is_pump()) continue;
       appendf(&out, "  %-10s %-10s %-10s %9.1f %8.1f ", p.id.c_str(), net.nodes[p.from].id.c_str(),
               net.nodes[p.to].id.c_str(), p.length_m * len.per_si, p.diameter_m * dia.per_si);
       if (!ls.open) {
@@ -171,6 +215,7 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
               regime_name(ls.regime));
     }
   }
+  if (options.tables) out += pumps_text(net, r);
   out += "\n";
   out += kCaution;
   return out;

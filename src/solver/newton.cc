@@ -45,6 +45,7 @@ class GradientSolver {
                              nullptr, nullptr);
   }
   bool newton_step(State* next);
+  void set_directions();
   bool update_check_valves(const State& s);
   bool check_valves_consistent(const State& s, std::string* why) const;
   SolveResult finish(const State& s, Termination t, std::string message);
@@ -57,6 +58,7 @@ class GradientSolver {
   const std::vector<double>* initial_flows_;
   std::vector<char> file_open_, cv_closed_, link_open_, supplied_, unsupplied_, active_;
   std::vector<int> toggles_;
+  std::vector<int> direction_;  // +1, -1: one-way link; 0: two-way
   std::vector<double> demand_, headloss_, dh_dq_, conductance_;
   Eigen::VectorXd rhs_, x_;
   SolveTiming timing_;
@@ -139,18 +141,43 @@ bool GradientSolver::newton_step(State* next) {
   return true;
 }
 
+// One-way links: check valves and pumps allow flow from `from` to `to` (direction +1); a link
+// at a tank that may only receive allows flow into the tank. Conflicting demands close it.
+void GradientSolver::set_directions() {
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
+    const Pipe& p = net_.pipes[k];
+    int forward = p.check_valve ? 1 : 0;
+    int conflict = 0;
+    auto require = [&](int d) {
+      if (forward != 0 && forward != d) conflict = 1;
+      forward = d;
+    };
+    if (net_.nodes[p.to].receives_only()) require(1);
+    if (net_.nodes[p.from].receives_only()) require(-1);
+    direction_[k] = conflict ? 0 : forward;
+    if (conflict) {
+      cv_closed_[k] = 1;
+      toggles_[k] = kMaxStatusToggles;  // stays closed
+    }
+  }
+}
+
 bool GradientSolver::update_check_valves(const State& s) {
   bool changed = false;
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
     const Pipe& p = net_.pipes[k];
-    if (!p.check_valve || !file_open_[k] || toggles_[k] >= kMaxStatusToggles) continue;
-    if (!cv_closed_[k] && active_[k] && s.flow[k] < 0.0) {
+    const int d = direction_[k];
+    if (d == 0 || !file_open_[k] || toggles_[k] >= kMaxStatusToggles) continue;
+    const std::size_t up = d > 0 ? p.from : p.to;
+    const std::size_t down = d > 0 ? p.to : p.from;
+    // Head that would drive flow the allowed way at zero flow (a pump adds its shut-off head).
+    const double drive = d * (s.head[p.from] - s.head[p.to] - laws_[k].zero_flow_headloss_m);
+    if (!cv_closed_[k] && active_[k] && d * s.flow[k] < 0.0) {
       cv_closed_[k] = 1;
-    } else if (cv_closed_[k] && supplied_[p.from] && supplied_[p.to] &&
-               s.head[p.from] > s.head[p.to]) {
+    } else if (cv_closed_[k] && supplied_[up] && supplied_[down] && drive > 0.0) {
       cv_closed_[k] = 0;
-    } else if (cv_closed_[k] && supplied_[p.from] && !supplied_[p.to]) {
-      cv_closed_[k] = 0;  // the downstream side is fed only through this valve
+    } else if (cv_closed_[k] && supplied_[up] && !supplied_[down]) {
+      cv_closed_[k] = 0;  // the downstream side is fed only through this link
     } else {
       continue;
     }
@@ -164,14 +191,17 @@ bool GradientSolver::update_check_valves(const State& s) {
 bool GradientSolver::check_valves_consistent(const State& s, std::string* why) const {
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
     const Pipe& p = net_.pipes[k];
-    if (!p.check_valve || !file_open_[k]) continue;
-    if (cv_closed_[k] && supplied_[p.from] && supplied_[p.to] &&
-        s.head[p.from] > s.head[p.to] + options_.energy_tolerance_m) {
-      *why = "check valve '" + p.id + "' is closed with a head favouring forward flow";
+    const int d = direction_[k];
+    if (d == 0 || !file_open_[k]) continue;
+    const double drive = d * (s.head[p.from] - s.head[p.to] - laws_[k].zero_flow_headloss_m);
+    const char* what = p.is_pump() ? "pump" : p.check_valve ? "check valve" : "link at an empty tank";
+    if (cv_closed_[k] && supplied_[p.from] && supplied_[p.to] && toggles_[k] < kMaxStatusToggles &&
+        drive > options_.energy_tolerance_m) {
+      *why = std::string(what) + " '" + p.id + "' is closed with a head favouring forward flow";
       return false;
     }
-    if (!cv_closed_[k] && active_[k] && s.flow[k] < -options_.continuity_tolerance_m3s) {
-      *why = "check valve '" + p.id + "' is open with reverse flow";
+    if (!cv_closed_[k] && active_[k] && d * s.flow[k] < -options_.continuity_tolerance_m3s) {
+      *why = std::string(what) + " '" + p.id + "' is open with reverse flow";
       return false;
     }
   }
@@ -191,6 +221,8 @@ SolveResult GradientSolver::run() {
   file_open_ = links_open_in_file(net_);
   cv_closed_.assign(links, 0);
   toggles_.assign(links, 0);
+  direction_.assign(links, 0);
+  set_directions();
   link_open_.assign(links, 0);
   unsupplied_.assign(nodes, 0);
   active_.assign(links, 0);
@@ -231,6 +263,10 @@ SolveResult GradientSolver::run() {
   for (std::size_t k = 0; k < links; ++k) {
     if (!active_[k]) continue;
     s.flow[k] = warm ? (*initial_flows_)[k] : kInitialVelocity_ms * laws_[k].area_m2;
+    if (!warm && laws_[k].pump) {  // start where the pump gives three quarters of its shut-off head
+      s.flow[k] = std::pow(0.25 * laws_[k].pump_gain_m / laws_[k].pump_coefficient,
+                           1.0 / laws_[k].pump_exponent);
+    }
     if (warm && s.flow[k] == 0.0) s.flow[k] = 1e-3 * kInitialVelocity_ms * laws_[k].area_m2;
   }
   headloss_.assign(links, 0.0);
@@ -332,7 +368,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     if (!active_[k]) continue;
     LinkEval e = evaluate_pipe(laws_[k], s.flow[k]);
     ls.flow_m3s = s.flow[k];
-    ls.velocity_ms = s.flow[k] / laws_[k].area_m2;
+    ls.velocity_ms = laws_[k].pump ? 0.0 : s.flow[k] / laws_[k].area_m2;
     ls.headloss_m = e.headloss_m;
     ls.reynolds = e.reynolds;
     ls.friction_factor = e.friction_factor;
