@@ -71,7 +71,7 @@ void check_same(const Network& a, const Network& b) {
 
 TEST_CASE("write then parse reproduces every shipped network exactly") {
   for (const char* file : {"networks/brindlemoor.gln", "tests/networks/two_loop.gln",
-                           "tests/networks/loop_two_sources.gln", "tests/networks/pump_lift.gln",
+                           "tests/networks/loop_two_sources.gln", "tests/networks/pump_lift.gln", "networks/quarry_hill.gln", "tests/networks/fcv_line.gln",
                            "tests/networks/loop_minor_closed.gln", "tests/networks/loop_hazen.gln"}) {
     CAPTURE(file);
     Network first = testing::load(file);

@@ -50,7 +50,10 @@ struct Node {
 
 enum class LinkStatus { kOpen, kClosed };
 
-enum class LinkKind { kPipe, kPump };
+enum class LinkKind { kPipe, kPump, kPrv, kPsv, kFcv, kThrottle };
+
+const char* link_kind_name(LinkKind kind);  // "pipe", "pump", "prv", "psv", "fcv", "throttle"
+
 
 // A pump's head-flow curve at full speed, H = a - b Q^c (H in m, Q in m^3/s), fitted through the
 // points given. At relative speed s the affinity laws give H = a s^2 - b s^(2-c) Q^c.
@@ -81,7 +84,17 @@ struct Pipe {
   double speed = 1.0;                 // relative to the curve's speed
   std::optional<double> efficiency;   // 0-1, for the shaft power
 
+  // Valves: PRV and PSV hold a head (downstream, upstream) given as a head or as a pressure at
+  // that node; FCV holds a flow; all have a diameter and open-mode loss coefficient `minor_k`;
+  // a throttle is a fixed loss K V^2/2g.
+  double valve_head_m = 0.0;     // PRV, PSV: the head held (resolved from a pressure setting)
+  double valve_flow_m3s = 0.0;   // FCV
+
   bool is_pump() const { return kind == LinkKind::kPump; }
+  bool is_valve() const { return kind != LinkKind::kPipe && kind != LinkKind::kPump; }
+  bool is_control_valve() const {
+    return kind == LinkKind::kPrv || kind == LinkKind::kPsv || kind == LinkKind::kFcv;
+  }
   SourceLocation where;
 };
 

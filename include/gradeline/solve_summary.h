@@ -23,6 +23,10 @@ enum class FlowRegime { kNone, kLaminar, kTransitional, kTurbulent };
 
 const char* regime_name(FlowRegime r);
 
+// The mode the solver chose for a control valve.
+enum class ValveMode { kNone, kActive, kOpen, kClosed };
+const char* valve_mode_name(ValveMode m);
+
 struct NodeState {
   double head_m = 0.0;        // NaN when unsupplied
   double pressure_m = 0.0;    // head - elevation, NaN when unsupplied
@@ -42,6 +46,7 @@ struct LinkState {
   FlowRegime regime = FlowRegime::kNone;
   bool open = true;           // false: closed by the file, by a check valve, or unsupplied
   bool closed_by_check_valve = false;
+  ValveMode valve_mode = ValveMode::kNone;  // control valves only
 };
 
 struct SolveTiming {

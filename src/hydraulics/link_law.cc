@@ -22,6 +22,15 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
     p.zero_flow_headloss_m = -p.pump_gain_m;
     return p;
   }
+  if (pipe.is_valve()) {
+    const double d = pipe.diameter_m;
+    p.valve = true;
+    p.diameter_m = d;
+    p.area_m2 = kPi * d * d / 4.0;
+    p.minor_coef = pipe.minor_k / (2.0 * kGravity_ms2 * p.area_m2 * p.area_m2);
+    p.laminar_coef = kValveLinearResistance;
+    return p;
+  }
   p.law = model.law;
   p.length_m = pipe.length_m;
   p.diameter_m = pipe.diameter_m;
@@ -45,6 +54,12 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
 
 LinkEval evaluate_pipe(const PipeLaw& p, double flow) {
   LinkEval e;
+  if (p.valve) {
+    const double q = std::abs(flow);
+    e.headloss_m = p.minor_coef * q * flow + p.laminar_coef * flow;
+    e.dh_dq = 2.0 * p.minor_coef * q + p.laminar_coef;
+    return e;
+  }
   if (p.pump) {
     const double q0 = kPumpRegularisationFlow_m3s;
     const double c = p.pump_exponent;

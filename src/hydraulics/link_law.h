@@ -47,7 +47,13 @@ struct PipeLaw {
   double pump_coefficient = 0.0; // b s^(2-c)
   double pump_exponent = 2.0;    // c
   double zero_flow_headloss_m = 0.0;  // h(0): 0 for a pipe, -a s^2 for a pump
+  // Valves: an open or throttling valve loses K V|V|/2g plus a tiny linear term (see below).
+  bool valve = false;
 };
+
+// A fully open valve with K = 0 still needs dh/dQ > 0: h = K V|V|/2g + r Q with r = 1e-3 s/m^2
+// (1e-5 m at 10 L/s).
+inline constexpr double kValveLinearResistance = 1e-3;
 
 inline constexpr double kPumpRegularisationFlow_m3s = 1e-6;
 

@@ -235,6 +235,67 @@ std::string fit_pump_curve(PumpCurve* c) {
   return "";
 }
 
+std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
+  StatementOptions o(s, {"type", "diameter", "pressure", "head", "flow", "minor", "status"}, c.file,
+                     c.units, c.diagnostics);
+  if (!read_ids(s, 3, "ID FROM TO", c)) return std::nullopt;
+  PipeRead p;
+  p.pipe.id = s.positional[0];
+  p.from_id = s.positional[1];
+  p.to_id = s.positional[2];
+  p.pipe.where = {c.file, s.line};
+  p.roughness_given = p.cfactor_given = true;
+  const std::string* type = o.find("type");
+  if (type == nullptr) {
+    o.error("valve '" + p.pipe.id + "': missing required key 'type'");
+    return std::nullopt;
+  }
+  if (*type == "prv") {
+    p.pipe.kind = LinkKind::kPrv;
+  } else if (*type == "psv") {
+    p.pipe.kind = LinkKind::kPsv;
+  } else if (*type == "fcv") {
+    p.pipe.kind = LinkKind::kFcv;
+  } else if (*type == "throttle") {
+    p.pipe.kind = LinkKind::kThrottle;
+  } else {
+    o.error("valve type must be prv, psv, fcv or throttle, got '" + *type + "'");
+    return std::nullopt;
+  }
+  if (!o.has("diameter")) o.error("valve '" + p.pipe.id + "': missing required key 'diameter'");
+  if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) p.pipe.diameter_m = *v;
+  if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) p.pipe.minor_k = *v;
+  p.minor_given = true;
+  p.pipe.length_m = 1.0;  // nominal, for loss-per-length reports
+  const bool pressure_valve = p.pipe.kind == LinkKind::kPrv || p.pipe.kind == LinkKind::kPsv;
+  if (pressure_valve) {
+    if (o.has("pressure") == o.has("head")) {
+      o.error("valve '" + p.pipe.id + "': give the setting as pressure= or head=");
+    } else if (o.has("head")) {
+      if (auto h = o.quantity("head", Dimension::kLength, kElevationRange)) p.pipe.valve_head_m = *h;
+    } else if (auto q = o.raw_quantity("pressure", Dimension::kPressure)) {
+      p.valve_pressure = PendingPressure{q->value, q->is_head};  // resolved at the node later
+    }
+  }
+  if (p.pipe.kind == LinkKind::kFcv) {
+    if (!o.has("flow")) o.error("valve '" + p.pipe.id + "': missing required key 'flow'");
+    if (auto q = o.quantity("flow", Dimension::kFlow, {0.0, 100.0, true, "100 m3/s"})) {
+      p.pipe.valve_flow_m3s = *q;
+    }
+  }
+  if (const std::string* status = o.find("status")) {
+    if (*status == "open" || *status == "closed") {
+      p.pipe.status = *status == "open" ? LinkStatus::kOpen : LinkStatus::kClosed;
+    } else {
+      o.error("status must be 'open' or 'closed', got '" + *status + "'");
+    }
+  }
+  if (p.from_id == p.to_id) {
+    o.error("valve '" + p.pipe.id + "' connects node '" + p.from_id + "' to itself");
+  }
+  return p;
+}
+
 std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
   StatementOptions o(s, {"curve", "speed", "efficiency", "status"}, c.file, c.units, c.diagnostics);
   if (!read_ids(s, 3, "ID FROM TO", c)) return std::nullopt;
@@ -288,7 +349,7 @@ std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
 }
 
 bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostics* d) {
-  if (p.is_pump()) return true;
+  if (p.is_pump() || p.is_valve()) return true;
   bool ok = true;
   if (law == HeadlossLaw::kDarcyWeisbach && !p.roughness_m && !law_value_given) {
     error(d, p.where,
@@ -325,6 +386,12 @@ bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
   const bool given = net->headloss.law == HeadlossLaw::kDarcyWeisbach ? p.roughness_given
                                                                       : p.cfactor_given;
   if (!from || !to) return false;
+  if (p.valve_pressure) {
+    // A pressure setting is held at the controlled node: downstream for a PRV, upstream for a
+    // PSV; the valve holds the head elevation + pressure head there.
+    const Node& at = net->nodes[p.pipe.kind == LinkKind::kPrv ? *to : *from];
+    p.pipe.valve_head_m = at.elevation_m + p.valve_pressure->to_head_m(net->fluid.density_kgm3);
+  }
   const bool ok = check_pipe(p.pipe, net->headloss.law, given, d);
   const std::string id = p.pipe.id;
   if (!net->try_add_pipe(std::move(p.pipe))) {

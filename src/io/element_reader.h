@@ -45,6 +45,7 @@ struct PipeRead {
   bool roughness_given = false;  // given, even if its value was refused
   bool cfactor_given = false;
   bool minor_given = false;
+  std::optional<PendingPressure> valve_pressure;  // PRV/PSV setting given as pressure=
 };
 
 // Pipe defaults ("defaults roughness=... cfactor=... minor=...").
@@ -64,6 +65,9 @@ std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c);
 std::optional<Node> read_tank(const Statement& s, const ReadContext& c);
 // `pump ID FROM TO curve=Q:H[,Q:H,Q:H] [speed=S] [efficiency=E] [status=open|closed]`
 std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c);
+// `valve ID FROM TO type=prv|psv|fcv|throttle diameter=D [pressure=P|head=H] [flow=Q]
+//  [minor=K] [status=open|closed]`
+std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c);
 // Fits H = a - b Q^c: through one design point (a = 4/3 H, c = 2: common practice), or three
 // points starting at Q = 0. Returns an error message, or "" on success.
 std::string fit_pump_curve(PumpCurve* curve);

@@ -84,6 +84,16 @@ std::string write_network(const Network& net) {
       out << "\n";
       continue;
     }
+    if (p.is_valve()) {
+      out << "valve " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id
+          << " type=" << link_kind_name(p.kind) << " diameter=" << with_unit(p.diameter_m, "m");
+      if (p.kind == LinkKind::kPrv || p.kind == LinkKind::kPsv) out << " head=" << with_unit(p.valve_head_m, "m");
+      if (p.kind == LinkKind::kFcv) out << " flow=" << with_unit(p.valve_flow_m3s, "m3/s");
+      if (p.minor_k != 0.0) out << " minor=" << exact_number(p.minor_k);
+      if (p.status == LinkStatus::kClosed) out << " status=closed";
+      out << "\n";
+      continue;
+    }
     out << "pipe " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id
         << " length=" << with_unit(p.length_m, "m") << " diameter=" << with_unit(p.diameter_m, "m");
     if (p.roughness_m) out << " roughness=" << with_unit(*p.roughness_m, "m");

@@ -26,7 +26,7 @@ const Range kHwExponentRange{0.0, 10.0, false, "10"};
 
 const std::vector<std::string> kKeywords = {"title", "units",    "headloss", "fluid", "reservoir",
                                             "node",  "pipe",     "defaults", "include", "case",
-                                            "limit", "tank",     "pump"};
+                                            "limit", "tank",     "pump",     "valve"};
 
 struct PendingReservoir {
   std::size_t node = 0;
@@ -139,6 +139,9 @@ void NetworkParser::statement(const Statement& s, const std::string& file, int d
     std::optional<Node> n = read_tank(s, context(file));
     std::size_t index = 0;
     if (n) add_node(std::move(*n), &index);
+  } else if (k == "valve") {
+    units_locked_ = true;
+    if (auto p = read_valve(s, context(file))) pipes_.push_back(std::move(*p));
   } else if (k == "pump") {
     units_locked_ = true;
     if (auto p = read_pump(s, context(file))) pipes_.push_back(std::move(*p));

@@ -80,7 +80,7 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
     const LinkState& ls = r.links[k];
     j->begin_object();
     j->field("id", p.id);
-    j->field("kind", p.is_pump() ? "pump" : "pipe");
+    j->field("kind", link_kind_name(p.kind));
     j->field("from", net.nodes[p.from].id);
     j->field("to", net.nodes[p.to].id);
     j->field("flow_m3s", ls.flow_m3s);
@@ -99,6 +99,11 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
       j->key("shaft_power_kW");
       if (p.efficiency) j->value(pp.hydraulic_power_w / *p.efficiency * 1e-3); else j->null();
       j->field("on_curve", pp.on_curve);
+    } else if (p.is_control_valve()) {
+      j->field("mode", ls.open || ls.valve_mode != ValveMode::kClosed ? valve_mode_name(ls.valve_mode)
+                                                                      : "closed");
+      j->field("setting", p.kind == LinkKind::kFcv ? p.valve_flow_m3s : p.valve_head_m);
+      j->field("setting_unit", p.kind == LinkKind::kFcv ? "m3/s" : "m (head)");
     } else {
       j->field("mode", ls.open ? "open" : "closed");
     }

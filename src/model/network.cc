@@ -2,6 +2,18 @@
 
 namespace gradeline {
 
+const char* link_kind_name(LinkKind kind) {
+  switch (kind) {
+    case LinkKind::kPipe: return "pipe";
+    case LinkKind::kPump: return "pump";
+    case LinkKind::kPrv: return "prv";
+    case LinkKind::kPsv: return "psv";
+    case LinkKind::kFcv: return "fcv";
+    case LinkKind::kThrottle: return "throttle";
+  }
+  return "pipe";
+}
+
 std::optional<std::size_t> Network::find_node(const std::string& id) const {
   auto it = node_index_.find(id);
   if (it == node_index_.end()) return std::nullopt;

@@ -52,6 +52,37 @@ std::string pumps_text(const Network& net, const SolveResult& r) {
   return out;
 }
 
+std::string valves_text(const Network& net, const SolveResult& r) {
+  const DisplayUnit flow = display_flow(net.units);
+  const DisplayUnit len = display_length(net.units);
+  std::string out;
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    const Pipe& p = net.pipes[k];
+    if (!p.is_valve()) continue;
+    if (out.empty()) {
+      out = "\nvalves\n";
+      appendf(&out, "  %-10s %-9s %-10s %-10s %10s %9s %12s  %s\n", "id", "kind", "from", "to",
+              ("flow " + std::string(flow.name)).c_str(), ("hL " + std::string(len.name)).c_str(),
+              "setting", "mode");
+    }
+    const LinkState& ls = r.links[k];
+    char setting[48] = "-";
+    if (p.kind == LinkKind::kFcv) {
+      std::snprintf(setting, sizeof setting, "%.3f %s", p.valve_flow_m3s * flow.per_si, flow.name);
+    } else if (p.kind != LinkKind::kThrottle) {
+      std::snprintf(setting, sizeof setting, "%.2f %s", p.valve_head_m * len.per_si, len.name);
+    }
+    const char* mode = p.status == LinkStatus::kClosed ? "closed (by the file)"
+                       : p.is_control_valve()          ? valve_mode_name(ls.valve_mode)
+                       : ls.open                       ? "open"
+                                                       : "unsupplied";
+    appendf(&out, "  %-10s %-9s %-10s %-10s %10.3f %9.3f %12s  %s\n", p.id.c_str(),
+            link_kind_name(p.kind), net.nodes[p.from].id.c_str(), net.nodes[p.to].id.c_str(),
+            ls.flow_m3s * flow.per_si, ls.headloss_m * len.per_si, setting, mode);
+  }
+  return out;
+}
+
 }  // namespace
 
 std::string solve_summary_text(const Network& net, const SolveResult& r, const std::string& file,
@@ -129,9 +160,19 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
     const LinkState& ls = r.links[k];
     if (std::abs(ls.velocity_ms) > kHighVelocity_ms && listed(&fast)) {
-      appendf(&warnings, "  ! pipe %s velocity %.2f %s is above %.1f %s\n", net.pipes[k].id.c_str(),
+      appendf(&warnings, "  ! %s %s velocity %.2f %s is above %.1f %s\n", link_kind_name(net.pipes[k].kind), net.pipes[k].id.c_str(),
               std::abs(ls.velocity_ms) * vel.per_si, vel.name, kHighVelocity_ms * vel.per_si,
               vel.name);
+    }
+    if (net.pipes[k].is_control_valve() && ls.valve_mode == ValveMode::kOpen &&
+        net.pipes[k].kind != LinkKind::kFcv) {
+      appendf(&warnings, "  ! %s %s is fully open: the %s head cannot reach its setting\n",
+              link_kind_name(net.pipes[k].kind), net.pipes[k].id.c_str(),
+              net.pipes[k].kind == LinkKind::kPrv ? "upstream" : "upstream");
+    }
+    if (net.pipes[k].kind == LinkKind::kFcv && ls.valve_mode == ValveMode::kOpen) {
+      appendf(&warnings, "  ! fcv %s is fully open: it cannot pass its set flow\n",
+              net.pipes[k].id.c_str());
     }
     if (net.pipes[k].is_pump()) {
       const PumpPoint pp = pump_point(net, net.pipes[k], ls);
@@ -199,7 +240,7 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
     for (std::size_t k = 0; k < net.pipes.size(); ++k) {
       const Pipe& p = net.pipes[k];
       const LinkState& ls = r.links[k];
-      if (p.is_pump()) continue;
+      if (p.is_pump() || p.is_valve()) continue;
       appendf(&out, "  %-10s %-10s %-10s %9.1f %8.1f ", p.id.c_str(), net.nodes[p.from].id.c_str(),
               net.nodes[p.to].id.c_str(), p.length_m * len.per_si, p.diameter_m * dia.per_si);
       if (!ls.open) {
@@ -215,7 +256,7 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
               regime_name(ls.regime));
     }
   }
-  if (options.tables) out += pumps_text(net, r);
+  if (options.tables) out += pumps_text(net, r) + valves_text(net, r);
   out += "\n";
   out += kCaution;
   return out;

@@ -8,6 +8,7 @@
 #include "hydraulics/link_law.h"
 #include "model/topology.h"
 #include "solver/assembly.h"
+#include "solver/control_valves.h"
 #include "solver/residuals.h"
 #include "solver/solver_cache.h"
 #include "solver/sparse_cholesky.h"
@@ -22,6 +23,7 @@ double seconds_since(Clock::time_point t) {
 }
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
+constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
   std::vector<double> flow;
@@ -34,7 +36,7 @@ class GradientSolver {
                  const std::vector<double>& demand_m3s, SolverCache* cache,
                  const std::vector<double>* initial_flows)
       : net_(net), options_(options), given_demand_(demand_m3s), cache_(*cache),
-        initial_flows_(initial_flows) {}
+        initial_flows_(initial_flows), valves_(net) {}
   SolveResult run();
 
  private:
@@ -56,6 +58,7 @@ class GradientSolver {
   std::vector<PipeLaw> laws_;
   SolverCache& cache_;
   const std::vector<double>* initial_flows_;
+  ControlValves valves_;
   std::vector<char> file_open_, cv_closed_, link_open_, supplied_, unsupplied_, active_;
   std::vector<int> toggles_;
   std::vector<int> direction_;  // +1, -1: one-way link; 0: two-way
@@ -67,7 +70,9 @@ class GradientSolver {
 };
 
 void GradientSolver::update_active_set() {
-  for (std::size_t k = 0; k < net_.pipes.size(); ++k) link_open_[k] = file_open_[k] && !cv_closed_[k];
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
+    link_open_[k] = file_open_[k] && !cv_closed_[k] && !valves_.closed(k);
+  }
   supplied_ = find_supplied(net_, cache_.topology, link_open_);
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) unsupplied_[n] = !supplied_[n];
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
@@ -87,14 +92,22 @@ void GradientSolver::evaluate(const State& s) {
     headloss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
   }
+  if (valves_.any()) valves_.override_losses(s.head, &headloss_);
   timing_.assembly_s += seconds_since(t);
 }
 
 bool GradientSolver::newton_step(State* next) {
   auto t = Clock::now();
   const std::size_t links = net_.pipes.size();
-  for (std::size_t k = 0; k < links; ++k) conductance_[k] = active_[k] ? 1.0 / dh_dq_[k] : 0.0;
-  assemble_matrix(conductance_, unsupplied_, &cache_.plan);
+  for (int pass = 0; pass < 4; ++pass) {
+    for (std::size_t k = 0; k < links; ++k) {
+      conductance_[k] = active_[k] && !valves_.active(k) ? 1.0 / dh_dq_[k] : 0.0;
+    }
+    assemble_matrix(conductance_, unsupplied_, &cache_.plan);
+    if (!valves_.any() || !valves_.release_floating(cache_.plan, cache_.plan.matrix, supplied_)) break;
+    evaluate(*next);  // an opened valve obeys its loss law from here on
+  }
+  if (valves_.any()) valves_.fix_flows(&next->flow);
   rhs_.setZero();
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
     const int u = cache_.plan.unknown_of_node[n];
@@ -112,6 +125,7 @@ bool GradientSolver::newton_step(State* next) {
     if (a >= 0) rhs_[a] += contribution;
     if (b >= 0) rhs_[b] -= contribution;
   }
+  if (valves_.any()) valves_.assemble(cache_.plan, active_, &rhs_, &cache_.plan.matrix);
   timing_.assembly_s += seconds_since(t);
 
   if (cache_.plan.unknowns > 0) {  // with only fixed-head nodes there is no system to solve
@@ -138,6 +152,7 @@ bool GradientSolver::newton_step(State* next) {
     const double dh = next->head[p.from] - next->head[p.to];
     next->flow[k] += conductance_[k] * (dh - headloss_[k]);
   }
+  if (valves_.any()) valves_.update_flows(active_, next->head, &next->flow);
   return true;
 }
 
@@ -287,6 +302,10 @@ SolveResult GradientSolver::run() {
     if (iteration > 0 && small && !status_changed) {
       std::string why;
       if (!check_valves_consistent(s, &why)) return finish(s, Termination::kMaxIterations, why);
+      if (!valves_.consistent(supplied_, s.head, s.flow, kValveHeadTolerance_m,
+                              options_.continuity_tolerance_m3s, &why)) {
+        return finish(s, Termination::kMaxIterations, why);
+      }
       return finish(s, Termination::kConverged, "");
     }
     if (iteration >= options_.max_iterations) {
@@ -301,7 +320,7 @@ SolveResult GradientSolver::run() {
     // Backtracking: from the second step on, the direction keeps continuity satisfied and
     // the energy residual should fall.
     evaluate(next);
-    if (iteration > 0 && !status_changed) {
+    if (iteration > 0 && !status_changed && !valves_.any()) {
       double old_merit = norms.energy_sum_squares;
       State trial = next;
       double alpha = 1.0;
@@ -320,6 +339,11 @@ SolveResult GradientSolver::run() {
     s = std::move(next);
     evaluated = true;
     status_changed = update_check_valves(s);
+    if (valves_.any() && valves_.update_modes(supplied_, s.head, s.flow, kValveHeadTolerance_m,
+                                              options_.continuity_tolerance_m3s)) {
+      update_active_set();
+      status_changed = true;
+    }
     if (status_changed) {
       for (std::size_t k = 0; k < links; ++k) {
         if (!active_[k]) s.flow[k] = 0.0;
@@ -364,12 +388,14 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     LinkState& ls = result.links[k];
     ls.open = active_[k];
     ls.closed_by_check_valve = cv_closed_[k];
+    ls.valve_mode = valves_.mode(k);
     ls.energy_residual_m = link_res[k];
     if (!active_[k]) continue;
     LinkEval e = evaluate_pipe(laws_[k], s.flow[k]);
     ls.flow_m3s = s.flow[k];
     ls.velocity_ms = laws_[k].pump ? 0.0 : s.flow[k] / laws_[k].area_m2;
-    ls.headloss_m = e.headloss_m;
+    ls.headloss_m = valves_.active(k) ? s.head[net_.pipes[k].from] - s.head[net_.pipes[k].to]
+                                      : e.headloss_m;
     ls.reynolds = e.reynolds;
     ls.friction_factor = e.friction_factor;
     ls.regime = e.regime;
