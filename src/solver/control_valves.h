@@ -1,6 +1,6 @@
 // Control valves in the global gradient method: pressure-reducing (PRV), pressure-sustaining
 // (PSV) and flow-control (FCV) valves, by mode switching with a lagged flow, the treatment of
-// Rossman (2000, EPANET 2 Users Manual, appendix D) in the gradient algorithm of Todini & Pilati.
+// Rossman (2000, U.S. EPA report EPA/600/R-00/057, appendix D) in the gradient algorithm of Todini & Pilati.
 //
 // ACTIVE PRV from i to j with setting H_set: j is tied to a virtual fixed head H_set through a
 //   conductance C = 1e4 m^2/s, and the valve's flow from the
