@@ -128,6 +128,29 @@ TEST_CASE("a throttle valve loses K V^2/2g") {
         doctest::Approx(8 * v * v / (2 * kGravity_ms2) + kValveLinearResistance * 0.01).epsilon(1e-9));
 }
 
+TEST_CASE("a throttle given as a fixed head loss loses that head at working flows") {
+  Network net = testing::parse_or_fail(
+      "fluid viscosity=1e-6m2/s density=998kg/m3\nreservoir R head=50\nnode A elevation=0 demand=10\n"
+      "valve T R A type=throttle diameter=100 loss=6.5m\n");
+  SolveResult r = solve(net);
+  REQUIRE(r.summary.converged());
+  // 6.5 m times Q/sqrt(Q^2 + qs^2), plus the 1e-3 s/m^2 linear term: 6.49997 + 1e-5 m.
+  CHECK(50.0 - r.nodes[1].head_m == doctest::Approx(6.5).epsilon(1e-4));
+}
+
+TEST_CASE("the fixed-loss throttle's dh/dQ matches finite differences") {
+  Pipe p;
+  p.kind = LinkKind::kThrottle;
+  p.diameter_m = 0.1;
+  p.valve_loss_m = 6.5;
+  PipeLaw law = make_pipe_law(p, {}, {}, 1e-8);
+  for (double q : {-1e-3, 1e-5, 1e-4, 0.01}) {
+    const double step = 1e-4 * std::abs(q);
+    const double fd = (evaluate_pipe(law, q + step).headloss_m - evaluate_pipe(law, q - step).headloss_m) / (2 * step);
+    CHECK(evaluate_pipe(law, q).dh_dq == doctest::Approx(fd).epsilon(1e-5));
+  }
+}
+
 TEST_CASE("3 pumps, 4 PRVs and 2 tanks converge from a cold start with consistent modes") {
   Network net = testing::load("networks/quarry_hill.gln");
   for (const DemandCase& c : net.cases) {

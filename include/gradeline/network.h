@@ -89,6 +89,7 @@ struct Pipe {
   // a throttle is a fixed loss K V^2/2g.
   double valve_head_m = 0.0;     // PRV, PSV: the head held (resolved from a pressure setting)
   double valve_flow_m3s = 0.0;   // FCV
+  double valve_loss_m = 0.0;     // throttle given as a fixed head loss (loss=), else 0
 
   bool is_pump() const { return kind == LinkKind::kPump; }
   bool is_valve() const { return kind != LinkKind::kPipe && kind != LinkKind::kPump; }

@@ -29,6 +29,7 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
     p.area_m2 = kPi * d * d / 4.0;
     p.minor_coef = pipe.minor_k / (2.0 * kGravity_ms2 * p.area_m2 * p.area_m2);
     p.laminar_coef = kValveLinearResistance;
+    p.fixed_loss_m = pipe.valve_loss_m;
     return p;
   }
   p.law = model.law;
@@ -58,6 +59,12 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow) {
     const double q = std::abs(flow);
     e.headloss_m = p.minor_coef * q * flow + p.laminar_coef * flow;
     e.dh_dq = 2.0 * p.minor_coef * q + p.laminar_coef;
+    if (p.fixed_loss_m > 0.0) {
+      const double qs2 = kFixedLossSmoothingFlow_m3s * kFixedLossSmoothingFlow_m3s;
+      const double root = std::sqrt(flow * flow + qs2);
+      e.headloss_m += p.fixed_loss_m * flow / root;
+      e.dh_dq += p.fixed_loss_m * qs2 / (root * root * root);
+    }
     return e;
   }
   if (p.pump) {

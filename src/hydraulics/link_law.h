@@ -49,11 +49,15 @@ struct PipeLaw {
   double zero_flow_headloss_m = 0.0;  // h(0): 0 for a pipe, -a s^2 for a pump
   // Valves: an open or throttling valve loses K V|V|/2g plus a tiny linear term (see below).
   bool valve = false;
+  double fixed_loss_m = 0.0;
 };
 
 // A fully open valve with K = 0 still needs dh/dQ > 0: h = K V|V|/2g + r Q with r = 1e-3 s/m^2
 // (1e-5 m at 10 L/s).
 inline constexpr double kValveLinearResistance = 1e-3;
+// A throttle given as a fixed head loss dH: h = dH Q / sqrt(Q^2 + qs^2) + r Q, a smooth sign
+// function: within 0.5% of dH for |Q| >= 1 L/s, qs = 1e-4 m^3/s.
+inline constexpr double kFixedLossSmoothingFlow_m3s = 1e-4;
 
 inline constexpr double kPumpRegularisationFlow_m3s = 1e-6;
 

@@ -236,7 +236,7 @@ std::string fit_pump_curve(PumpCurve* c) {
 }
 
 std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
-  StatementOptions o(s, {"type", "diameter", "pressure", "head", "flow", "minor", "status"}, c.file,
+  StatementOptions o(s, {"type", "diameter", "pressure", "head", "flow", "minor", "loss", "status"}, c.file,
                      c.units, c.diagnostics);
   if (!read_ids(s, 3, "ID FROM TO", c)) return std::nullopt;
   PipeRead p;
@@ -275,6 +275,13 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
       if (auto h = o.quantity("head", Dimension::kLength, kElevationRange)) p.pipe.valve_head_m = *h;
     } else if (auto q = o.raw_quantity("pressure", Dimension::kPressure)) {
       p.valve_pressure = PendingPressure{q->value, q->is_head};  // resolved at the node later
+    }
+  }
+  if (o.has("loss")) {
+    if (p.pipe.kind != LinkKind::kThrottle) {
+      o.error("loss= is for a throttle valve");
+    } else if (auto v = o.quantity("loss", Dimension::kLength, {0.0, 1000.0, false, "1000 m"})) {
+      p.pipe.valve_loss_m = *v;
     }
   }
   if (p.pipe.kind == LinkKind::kFcv) {

@@ -90,6 +90,7 @@ std::string write_network(const Network& net) {
       if (p.kind == LinkKind::kPrv || p.kind == LinkKind::kPsv) out << " head=" << with_unit(p.valve_head_m, "m");
       if (p.kind == LinkKind::kFcv) out << " flow=" << with_unit(p.valve_flow_m3s, "m3/s");
       if (p.minor_k != 0.0) out << " minor=" << exact_number(p.minor_k);
+      if (p.valve_loss_m != 0.0) out << " loss=" << with_unit(p.valve_loss_m, "m");
       if (p.status == LinkStatus::kClosed) out << " status=closed";
       out << "\n";
       continue;
