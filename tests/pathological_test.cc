@@ -38,11 +38,6 @@ std::vector<std::string> words(const std::string& s) {
   return out;
 }
 
-std::vector<double> base_demand(const Network& net) {
-  std::vector<double> q;
-  for (const Node& n : net.nodes) q.push_back(n.demand_m3s);
-  return q;
-}
 
 // A solved network must be consistent: finite, within tolerance, self-check passed.
 void check_solved(const Network& net, const SolveResult& r) {
@@ -50,7 +45,7 @@ void check_solved(const Network& net, const SolveResult& r) {
   SolveOptions options;
   CHECK(r.summary.max_energy_residual_m <= options.energy_tolerance_m);
   CHECK(r.summary.max_continuity_residual_m3s <= options.continuity_tolerance_m3s);
-  SelfCheck c = check_result(net, base_demand(net), r, options);
+  SelfCheck c = check_result(net, testing::base_demand(net), r, options);
   CHECK_MESSAGE(c.ok, c.failure);
 }
 

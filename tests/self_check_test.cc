@@ -9,19 +9,11 @@
 
 using namespace gradeline;
 
-namespace {
-std::vector<double> base_demand(const Network& net) {
-  std::vector<double> q;
-  for (const Node& n : net.nodes) q.push_back(n.demand_m3s);
-  return q;
-}
-}  // namespace
-
 TEST_CASE("a converged result passes the self-check") {
   Network net = testing::load("networks/brindlemoor.gln");
   SolveResult r = solve(net);
   REQUIRE(r.summary.converged());
-  CHECK(check_result(net, base_demand(net), r, {}).ok);
+  CHECK(check_result(net, testing::base_demand(net), r, {}).ok);
 }
 
 TEST_CASE("a perturbed head fails the energy check and names the pipe") {
@@ -29,7 +21,7 @@ TEST_CASE("a perturbed head fails the energy check and names the pipe") {
   SolveResult r = solve(net);
   REQUIRE(r.summary.converged());
   r.nodes[*net.find_node("N3")].head_m += 1e-3;
-  SelfCheck c = check_result(net, base_demand(net), r, {});
+  SelfCheck c = check_result(net, testing::base_demand(net), r, {});
   CHECK_FALSE(c.ok);
   CHECK(c.failure.find("energy residual") != std::string::npos);
 }
@@ -39,14 +31,14 @@ TEST_CASE("a perturbed flow fails the check") {
   SolveResult r = solve(net);
   REQUIRE(r.summary.converged());
   r.links[*net.find_pipe("T2")].flow_m3s += 1e-6;
-  CHECK_FALSE(check_result(net, base_demand(net), r, {}).ok);
+  CHECK_FALSE(check_result(net, testing::base_demand(net), r, {}).ok);
 }
 
 TEST_CASE("a non-finite value fails the check") {
   Network net = testing::load("tests/networks/loop_hazen.gln");
   SolveResult r = solve(net);
   r.links[0].flow_m3s = std::numeric_limits<double>::quiet_NaN();
-  SelfCheck c = check_result(net, base_demand(net), r, {});
+  SelfCheck c = check_result(net, testing::base_demand(net), r, {});
   CHECK_FALSE(c.ok);
   CHECK(c.failure == "pipe 'S1' has a non-finite flow or head loss");
 }

@@ -53,6 +53,13 @@ Network parse_or_fail(const std::string& text) {
   return std::move(r.network);
 }
 
+std::vector<double> base_demand(const Network& net) {
+  std::vector<double> q;
+  q.reserve(net.nodes.size());
+  for (const Node& n : net.nodes) q.push_back(n.demand_m3s);
+  return q;
+}
+
 double max_loop_headloss_m(const Network& net, const SolveResult& result) {
   // Spanning forest of the open links by breadth-first search; each open link outside it closes
   // one fundamental cycle, walked through the tree to the common ancestor.

@@ -19,6 +19,9 @@ std::vector<std::vector<double>> read_csv(const std::string& relative);
 Network load(const std::string& relative);
 Network parse_or_fail(const std::string& text);
 
+// The base demand of every node (m^3/s), as a demand vector for solve().
+std::vector<double> base_demand(const Network& network);
+
 // Largest |sum of signed head losses| around the fundamental cycles of the open links (m).
 double max_loop_headloss_m(const Network& network, const SolveResult& result);
 

@@ -20,14 +20,9 @@ using namespace gradeline;
 namespace {
 constexpr double kSettingTol_m = 1e-6;
 
-std::vector<double> base_demand(const Network& net) {
-  std::vector<double> q;
-  for (const Node& n : net.nodes) q.push_back(n.demand_m3s);
-  return q;
-}
 
 void check_consistent(const Network& net, const SolveResult& r) {
-  SelfCheck c = check_result(net, base_demand(net), r, {});
+  SelfCheck c = check_result(net, testing::base_demand(net), r, {});
   CHECK_MESSAGE(c.ok, c.failure);
 }
 }  // namespace
