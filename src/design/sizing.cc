@@ -4,18 +4,31 @@
 #include <chrono>
 #include <cmath>
 #include <limits>
-#include <map>
+#include <unordered_map>
 
 namespace gradeline {
 namespace {
 
 using Design = std::vector<int>;  // per candidate pipe: index into its options
 
+// What the search remembers of a trial design.
 struct Evaluation {
   bool feasible = false;
   double margin_m = -std::numeric_limits<double>::infinity();  // worst pressure margin
+};
+
+// What the report needs of the chosen design.
+struct Details {
   std::vector<std::pair<std::string, double>> min_pressure_m;
   std::vector<Violation> violations;
+};
+
+struct DesignHash {
+  std::size_t operator()(const std::vector<int>& d) const {
+    std::size_t h = 1469598103934665603ull;
+    for (int v : d) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
+    return h;
+  }
 };
 
 void set_size(Pipe* p, const CatalogueItem& item) {
@@ -41,9 +54,11 @@ class Sizer {
     return c;
   }
   const Evaluation& evaluate(const Design& d);
-  Design greedy_descent(Design d);
+  Evaluation solve_design(const Design& d, Details* details);
+  Design greedy_descent(Design d, int frozen = -1);
   Design greedy_ascent(Design d);
   Design local_search(Design d);
+  Design triple_search(Design d);
   Design enumerate();
   Design perturb(Design d);
 
@@ -54,7 +69,7 @@ class Sizer {
   const SizingProblem& problem_;
   Network work_;  // the network with the trial sizes
   std::vector<std::vector<SizeOption>> options_;
-  std::map<Design, Evaluation> memo_;
+  std::unordered_map<Design, Evaluation, DesignHash> memo_;
   SolverSession session_;                          // one topology: analyse once
   std::vector<std::vector<double>> last_flows_;    // per case: warm start for the next trial
   long long solves_ = 0;
@@ -64,11 +79,22 @@ class Sizer {
 const Evaluation& Sizer::evaluate(const Design& d) {
   auto it = memo_.find(d);
   if (it != memo_.end()) return it->second;
+  Evaluation e = solve_design(d, nullptr);
+  if (e.feasible) best_cost_ = std::min(best_cost_, cost(d));
+  if (problem_.progress && solves_ % 200 == 0) problem_.progress(solves_, best_cost_);
+  return memo_.emplace(d, e).first->second;
+}
+
+Evaluation Sizer::solve_design(const Design& d, Details* details) {
   for (std::size_t i = 0; i < d.size(); ++i) {
     const std::size_t k = problem_.pipes[i];
-    work_.pipes[k] = net_.pipes[k];
     const SizeOption& o = options_[i][d[i]];
-    if (o.item >= 0) set_size(&work_.pipes[k], cat_.items[o.item]);
+    const Pipe& original = net_.pipes[k];
+    Pipe& p = work_.pipes[k];
+    p.diameter_m = original.diameter_m;
+    p.roughness_m = original.roughness_m;
+    p.cfactor = original.cfactor;
+    if (o.item >= 0) set_size(&p, cat_.items[o.item]);
   }
   Evaluation e;
   e.feasible = true;
@@ -79,15 +105,13 @@ const Evaluation& Sizer::evaluate(const Design& d) {
     const std::vector<double>* warm = last_flows_[ci].empty() ? nullptr : &last_flows_[ci];
     CaseOutcome o = run_case(work_, c, problem_.solve_options, problem_.criteria, &session_, warm);
     solves_ += 1;
-    if (o.result.summary.converged()) {
-      last_flows_[ci].resize(o.result.links.size());
-      for (std::size_t k = 0; k < o.result.links.size(); ++k) last_flows_[ci][k] = o.result.links[k].flow_m3s;
-    }
     if (!o.result.summary.converged()) {
       e.feasible = false;
       e.margin_m = -std::numeric_limits<double>::infinity();
       break;
     }
+    last_flows_[ci].resize(o.result.links.size());
+    for (std::size_t k = 0; k < o.result.links.size(); ++k) last_flows_[ci][k] = o.result.links[k].flow_m3s;
     double lowest = std::numeric_limits<double>::infinity();
     for (std::size_t n = 0; n < work_.nodes.size(); ++n) {
       const NodeState& ns = o.result.nodes[n];
@@ -95,24 +119,25 @@ const Evaluation& Sizer::evaluate(const Design& d) {
       lowest = std::min(lowest, ns.pressure_m);
       if (o.criteria.min_pressure_m) e.margin_m = std::min(e.margin_m, ns.pressure_m - *o.criteria.min_pressure_m);
     }
-    e.min_pressure_m.emplace_back(c.name, lowest);
     if (!o.violations.empty()) e.feasible = false;
-    e.violations.insert(e.violations.end(), o.violations.begin(), o.violations.end());
+    if (details) {
+      details->min_pressure_m.emplace_back(c.name, lowest);
+      details->violations.insert(details->violations.end(), o.violations.begin(), o.violations.end());
+    }
   }
-  if (e.feasible) best_cost_ = std::min(best_cost_, cost(d));
-  if (problem_.progress && solves_ % 200 == 0) problem_.progress(solves_, best_cost_);
-  return memo_.emplace(d, std::move(e)).first->second;
+  return e;
 }
 
 // From a feasible design, step pipes down one size while the design stays feasible, each time
 // taking the step that saves most per metre of pressure margin it uses.
-Design Sizer::greedy_descent(Design d) {
+// A `frozen` pipe (the one a kick just pushed up) keeps its size.
+Design Sizer::greedy_descent(Design d, int frozen) {
   for (;;) {
     const double margin = evaluate(d).margin_m;
     int best = -1;
     double best_score = -1.0;
     for (std::size_t i = 0; i < d.size(); ++i) {
-      if (d[i] == 0) continue;
+      if (d[i] == 0 || static_cast<int>(i) == frozen) continue;
       Design t = d;
       --t[i];
       const Evaluation& e = evaluate(t);
@@ -195,33 +220,80 @@ Design Sizer::local_search(Design d) {
   return d;
 }
 
+// First-improvement search over changes of three pipes at once, each by up to `reach` sizes
+// either way; only moves that lower the cost are solved. This finds trades such as one main
+// up a size paying for two others down a size, which pair moves cannot reach.
+Design Sizer::triple_search(Design d) {
+  if (!evaluate(d).feasible) return d;
+  const int n = static_cast<int>(d.size());
+  const int reach = n > 12 ? 1 : 2;
+  bool improved = true;
+  while (improved && solves_ < 600000) {
+    improved = false;
+    const double current = cost(d);
+    for (int i = 0; i < n && !improved; ++i) {
+      for (int j = i + 1; j < n && !improved; ++j) {
+        for (int k = j + 1; k < n && !improved; ++k) {
+          for (int a = -reach; a <= reach && !improved; ++a) {
+            for (int b = -reach; b <= reach && !improved; ++b) {
+              for (int c = -reach; c <= reach && !improved; ++c) {
+                if (a == 0 || b == 0 || c == 0) continue;  // pair moves cover those
+                Design t = d;
+                t[i] += a;
+                t[j] += b;
+                t[k] += c;
+                if (t[i] < 0 || t[j] < 0 || t[k] < 0 || t[i] >= static_cast<int>(options_[i].size()) ||
+                    t[j] >= static_cast<int>(options_[j].size()) ||
+                    t[k] >= static_cast<int>(options_[k].size())) {
+                  continue;
+                }
+                if (cost(t) < current - 1e-9 && evaluate(t).feasible) {
+                  d = local_search(t);
+                  improved = true;
+                }
+              }
+            }
+          }
+        }
+      }
+    }
+  }
+  return d;
+}
+
 // Iterated local search: from the best design, push one pipe up one to three sizes (or two
 // pipes up one size each), search locally again, and keep what is cheaper; stop when no kick
 // helps or the solve budget is spent.
 Design Sizer::perturb(Design d) {
   constexpr long long kSolveBudget = 400000;
+  struct Kick {
+    Design design;
+    int frozen;  // the pushed pipe, held at its new size during the first descent
+  };
   bool improved = true;
   while (improved && solves_ < kSolveBudget) {
     improved = false;
     const double current = cost(d);
-    std::vector<Design> kicks;
+    std::vector<Kick> kicks;
     for (std::size_t i = 0; i < d.size(); ++i) {
       for (int k = 1; k <= 3; ++k) {
         Design t = d;
         t[i] += k;
-        if (t[i] < static_cast<int>(options_[i].size())) kicks.push_back(t);
+        if (t[i] < static_cast<int>(options_[i].size())) kicks.push_back({t, static_cast<int>(i)});
       }
+    }
+    for (std::size_t i = 0; i < d.size(); ++i) {
       for (std::size_t m = i + 1; m < d.size(); ++m) {
         Design t = d;
         ++t[i];
         ++t[m];
         if (t[i] < static_cast<int>(options_[i].size()) && t[m] < static_cast<int>(options_[m].size()))
-          kicks.push_back(t);
+          kicks.push_back({t, -1});
       }
     }
-    for (const Design& kick : kicks) {
+    for (const Kick& kick : kicks) {
       if (solves_ >= kSolveBudget) break;
-      Design t = local_search(greedy_descent(kick));
+      Design t = local_search(greedy_descent(greedy_descent(kick.design, kick.frozen)));
       if (evaluate(t).feasible && cost(t) < current - 1e-9) {
         d = t;
         improved = true;
@@ -270,6 +342,8 @@ void Sizer::explain(const Design& d, SizingResult* out) {
   }
 }
 
+constexpr long long kMultiStartBudget = 150000;
+
 SizingResult Sizer::run() {
   auto start = std::chrono::steady_clock::now();
   SizingResult out;
@@ -293,7 +367,7 @@ SizingResult Sizer::run() {
     best = perturb(best);
     // Multi-start: greedy descent from every design with one pipe fixed at one size and the
     // rest at their largest, then local search.
-    for (std::size_t i = 0; i < options_.size() && solves_ < 600000; ++i) {
+    for (std::size_t i = 0; i < options_.size() && solves_ < kMultiStartBudget; ++i) {
       for (int j = 0; j + 1 < static_cast<int>(options_[i].size()); ++j) {
         Design start = top;
         start[i] = j;
@@ -302,14 +376,21 @@ SizingResult Sizer::run() {
         if (evaluate(t).feasible && cost(t) < cost(best) - 1e-9) best = t;
       }
     }
-    out.method = "greedy descent and ascent, local search with kicks, multi-start descent";
+    // Then alternate three-pipe exchanges and kicks until neither lowers the cost.
+    for (;;) {
+      const double before = cost(best);
+      best = perturb(triple_search(best));
+      if (cost(best) >= before - 1e-9) break;
+    }
+    out.method = "greedy descent and ascent, local search with kicks, multi-start descent, three-pipe exchanges";
   }
-  const Evaluation& e = evaluate(best);
+  Details details;
+  const Evaluation e = solve_design(best, &details);
   out.feasible = e.feasible;
   out.cost = cost(best);
-  out.min_pressure_m = e.min_pressure_m;
+  out.min_pressure_m = details.min_pressure_m;
   out.min_margin_m = e.margin_m;
-  if (!e.feasible) out.remaining = e.violations;
+  if (!e.feasible) out.remaining = details.violations;
   explain(best, &out);
   out.solves = solves_;
   out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
