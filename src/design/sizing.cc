@@ -55,7 +55,7 @@ class Sizer {
   }
   const Evaluation& evaluate(const Design& d);
   Evaluation solve_design(const Design& d, Details* details);
-  Design greedy_descent(Design d, int frozen = -1);
+  Design greedy_descent(Design d, int frozen = -1, int frozen2 = -1);
   Design greedy_ascent(Design d);
   Design local_search(Design d);
   Design triple_search(Design d);
@@ -73,6 +73,7 @@ class Sizer {
   SolverSession session_;                          // one topology: analyse once
   std::vector<std::vector<double>> last_flows_;    // per case: warm start for the next trial
   long long solves_ = 0;
+  long long solves_to_best_ = 0;  // solves spent when the cheapest feasible design was first met
   double best_cost_ = std::numeric_limits<double>::infinity();
 };
 
@@ -80,7 +81,10 @@ const Evaluation& Sizer::evaluate(const Design& d) {
   auto it = memo_.find(d);
   if (it != memo_.end()) return it->second;
   Evaluation e = solve_design(d, nullptr);
-  if (e.feasible) best_cost_ = std::min(best_cost_, cost(d));
+  if (e.feasible && cost(d) < best_cost_) {
+    best_cost_ = cost(d);
+    solves_to_best_ = solves_;
+  }
   if (problem_.progress && solves_ % 200 == 0) problem_.progress(solves_, best_cost_);
   return memo_.emplace(d, e).first->second;
 }
@@ -130,14 +134,14 @@ Evaluation Sizer::solve_design(const Design& d, Details* details) {
 
 // From a feasible design, step pipes down one size while the design stays feasible, each time
 // taking the step that saves most per metre of pressure margin it uses.
-// A `frozen` pipe (the one a kick just pushed up) keeps its size.
-Design Sizer::greedy_descent(Design d, int frozen) {
+// `frozen` pipes (those a kick just pushed up) keep their sizes.
+Design Sizer::greedy_descent(Design d, int frozen, int frozen2) {
   for (;;) {
     const double margin = evaluate(d).margin_m;
     int best = -1;
     double best_score = -1.0;
     for (std::size_t i = 0; i < d.size(); ++i) {
-      if (d[i] == 0 || static_cast<int>(i) == frozen) continue;
+      if (d[i] == 0 || static_cast<int>(i) == frozen || static_cast<int>(i) == frozen2) continue;
       Design t = d;
       --t[i];
       const Evaluation& e = evaluate(t);
@@ -268,7 +272,7 @@ Design Sizer::perturb(Design d) {
   constexpr long long kSolveBudget = 400000;
   struct Kick {
     Design design;
-    int frozen;  // the pushed pipe, held at its new size during the first descent
+    int frozen, frozen2;  // the pushed pipes, held at their new sizes during the first descent
   };
   bool improved = true;
   while (improved && solves_ < kSolveBudget) {
@@ -279,7 +283,7 @@ Design Sizer::perturb(Design d) {
       for (int k = 1; k <= 3; ++k) {
         Design t = d;
         t[i] += k;
-        if (t[i] < static_cast<int>(options_[i].size())) kicks.push_back({t, static_cast<int>(i)});
+        if (t[i] < static_cast<int>(options_[i].size())) kicks.push_back({t, static_cast<int>(i), -1});
       }
     }
     for (std::size_t i = 0; i < d.size(); ++i) {
@@ -288,12 +292,12 @@ Design Sizer::perturb(Design d) {
         ++t[i];
         ++t[m];
         if (t[i] < static_cast<int>(options_[i].size()) && t[m] < static_cast<int>(options_[m].size()))
-          kicks.push_back({t, -1});
+          kicks.push_back({t, static_cast<int>(i), static_cast<int>(m)});
       }
     }
     for (const Kick& kick : kicks) {
       if (solves_ >= kSolveBudget) break;
-      Design t = local_search(greedy_descent(greedy_descent(kick.design, kick.frozen)));
+      Design t = local_search(greedy_descent(greedy_descent(kick.design, kick.frozen, kick.frozen2)));
       if (evaluate(t).feasible && cost(t) < current - 1e-9) {
         d = t;
         improved = true;
@@ -372,7 +376,9 @@ SizingResult Sizer::run() {
         Design start = top;
         start[i] = j;
         if (!evaluate(start).feasible) continue;
-        Design t = local_search(greedy_descent(start));
+        Design t = greedy_descent(start);
+        if (cost(t) > 1.05 * cost(best)) continue;  // only promising descents are polished
+        t = local_search(t);
         if (evaluate(t).feasible && cost(t) < cost(best) - 1e-9) best = t;
       }
     }
@@ -393,6 +399,7 @@ SizingResult Sizer::run() {
   if (!e.feasible) out.remaining = details.violations;
   explain(best, &out);
   out.solves = solves_;
+  out.solves_to_best = solves_to_best_;
   out.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   return out;
 }

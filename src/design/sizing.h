@@ -50,6 +50,7 @@ struct SizingResult {
   std::vector<Violation> remaining;                         // when not feasible: what still fails
   std::string method;                                       // "enumeration" or "greedy+local"
   long long solves = 0;
+  long long solves_to_best = 0;  // solves spent when the chosen design was first met
   double seconds = 0.0;
 };
 

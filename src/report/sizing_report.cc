@@ -20,8 +20,8 @@ std::string sizing_text(const Network& net, const Catalogue& cat, const SizingRe
   std::snprintf(line, sizeof line, "gradeline size  %s\n",
                 r.feasible ? "FEASIBLE design found" : "NO FEASIBLE DESIGN: best effort below");
   out += line;
-  std::snprintf(line, sizeof line, "method      %s; %lld hydraulic solves in %.2f s\n",
-                r.method.c_str(), r.solves, r.seconds);
+  std::snprintf(line, sizeof line, "method      %s\nsearch      %lld hydraulic solves in %.2f s (this design first met after %lld)\n",
+                r.method.c_str(), r.solves, r.seconds, r.solves_to_best);
   out += line;
   std::snprintf(line, sizeof line, "cost        %.0f for %zu changed pipes\n", r.cost, r.changes.size());
   out += line;
@@ -104,6 +104,7 @@ void write_sizing_json(const Network& net, const Catalogue& cat, const SizingRes
   j->field("min_margin_m", r.min_margin_m);
   write_violations_json(net, r.remaining, j);
   j->field("solves", r.solves);
+  j->field("solves_to_best", r.solves_to_best);
   j->field("seconds", r.seconds);
   j->end_object();
 }
