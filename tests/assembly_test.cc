@@ -27,9 +27,10 @@ TEST_CASE("assembled matrix equals B^T C B over the junctions, with unit rows fo
   }
   Eigen::VectorXd cv = Eigen::Map<Eigen::VectorXd>(c.data(), c.size());
   Eigen::MatrixXd expected = b.transpose() * cv.asDiagonal() * b;
-  Eigen::MatrixXd lower = Eigen::MatrixXd(plan.matrix);
-  Eigen::MatrixXd full = lower + lower.transpose();
-  full.diagonal() = lower.diagonal();
+  Eigen::MatrixXd upper = Eigen::MatrixXd(plan.matrix);
+  CHECK(Eigen::MatrixXd(upper.triangularView<Eigen::StrictlyLower>()).cwiseAbs().maxCoeff() == 0.0);
+  Eigen::MatrixXd full = upper + upper.transpose();
+  full.diagonal() = upper.diagonal();
   CHECK((full - expected).cwiseAbs().maxCoeff() < 1e-14);
 }
 

@@ -12,25 +12,26 @@ double swamee_jain_friction(double re, double rr) {
   return 0.25 / (l * l);
 }
 
-ColebrookSolution colebrook_friction(double re, double rr) {
+ColebrookSolution colebrook_friction(double re, double rr, double* x_hint) {
   // F(x) = x + 2 log10(a + b x) = 0, with x = 1/sqrt(f), a = (e/D)/3.7, b = 2.51/Re.
   // F is increasing and concave in x, so after the first step Newton's iterates approach the
   // root monotonically from below; Swamee-Jain starts within about 1% of it.
   const double a = rr / 3.7;
   const double b = 2.51 / re;
-  double x = 1.0 / std::sqrt(swamee_jain_friction(re, rr));
+  double x = x_hint != nullptr && *x_hint > 0.0 ? *x_hint
+                                                : 1.0 / std::sqrt(swamee_jain_friction(re, rr));
   ColebrookSolution out;
+  double inner = a + b * x;
+  double dF_dx = 1.0 + kTwoOverLn10 * b / inner;
   for (int i = 0; i < 50; ++i) {
-    const double inner = a + b * x;
-    const double F = x + kTwoOverLn10 * std::log(inner);
-    const double dF = 1.0 + kTwoOverLn10 * b / inner;
-    const double step = F / dF;
+    const double step = (x + kTwoOverLn10 * std::log(inner)) / dF_dx;
     x -= step;
+    inner = a + b * x;
+    dF_dx = 1.0 + kTwoOverLn10 * b / inner;
     out.iterations = i + 1;
-    if (std::abs(step) <= 1e-15 * x) break;
+    if (std::abs(step) <= 1e-8 * x) break;
   }
-  const double inner = a + b * x;
-  const double dF_dx = 1.0 + kTwoOverLn10 * b / inner;
+  if (x_hint != nullptr) *x_hint = x;
   const double dF_dre = -kTwoOverLn10 * b * x / (re * inner);  // db/dRe = -b/Re
   const double dx_dre = -dF_dre / dF_dx;
   out.f = 1.0 / (x * x);
@@ -38,7 +39,7 @@ ColebrookSolution colebrook_friction(double re, double rr) {
   return out;
 }
 
-FrictionFactor darcy_friction(double re, double rr) {
+FrictionFactor darcy_friction(double re, double rr, double* x_hint) {
   FrictionFactor out;
   if (re <= kLaminarLimitRe) {
     out.f = 64.0 / re;
@@ -47,7 +48,7 @@ FrictionFactor darcy_friction(double re, double rr) {
     return out;
   }
   if (re >= kTurbulentLimitRe) {
-    ColebrookSolution c = colebrook_friction(re, rr);
+    ColebrookSolution c = colebrook_friction(re, rr, x_hint);
     out.f = c.f;
     out.df_dre = c.df_dre;
     out.regime = FlowRegime::kTurbulent;

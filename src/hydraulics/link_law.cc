@@ -53,7 +53,7 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
   return p;
 }
 
-LinkEval evaluate_pipe(const PipeLaw& p, double flow) {
+LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
   LinkEval e;
   if (p.valve) {
     const double q = std::abs(flow);
@@ -88,7 +88,7 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow) {
       e.regime = q > 0.0 ? FlowRegime::kLaminar : FlowRegime::kNone;
       e.friction_factor = q > 0.0 ? 64.0 / e.reynolds : 0.0;
     } else {
-      FrictionFactor f = darcy_friction(e.reynolds, p.relative_roughness);
+      FrictionFactor f = darcy_friction(e.reynolds, p.relative_roughness, colebrook_x);
       h = f.f * p.turbulent_coef * q * q;
       dh = p.turbulent_coef * q * (2.0 * f.f + f.df_dre * e.reynolds);
       e.regime = f.regime;

@@ -72,6 +72,7 @@ struct LinkEval {
   FlowRegime regime = FlowRegime::kNone;
 };
 
-LinkEval evaluate_pipe(const PipeLaw& law, double flow_m3s);
+// `colebrook_x`: optional per-pipe warm start of the Colebrook root (see colebrook_friction).
+LinkEval evaluate_pipe(const PipeLaw& law, double flow_m3s, double* colebrook_x = nullptr);
 
 }  // namespace gradeline

@@ -6,7 +6,7 @@ namespace gradeline {
 namespace {
 
 // Index of entry (row, col) in the compressed value array; the entry must exist.
-int slot_of(const LowerMatrix& m, int row, int col) {
+int slot_of(const SymmetricMatrix& m, int row, int col) {
   const int* begin = m.innerIndexPtr() + m.outerIndexPtr()[col];
   const int* end = m.innerIndexPtr() + m.outerIndexPtr()[col + 1];
   const int* it = std::lower_bound(begin, end, row);
@@ -15,11 +15,18 @@ int slot_of(const LowerMatrix& m, int row, int col) {
 
 }  // namespace
 
-AssemblyPlan plan_assembly(const Network& net) {
+AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
   AssemblyPlan plan;
   plan.unknown_of_node.assign(net.nodes.size(), -1);
   for (std::size_t i = 0; i < net.nodes.size(); ++i) {
     if (!net.nodes[i].is_fixed_head()) plan.unknown_of_node[i] = plan.unknowns++;
+  }
+  if (!order.empty()) {  // renumber: the junction eliminated k-th becomes unknown k
+    std::vector<int> position(order.size());
+    for (std::size_t k = 0; k < order.size(); ++k) position[order[k]] = static_cast<int>(k);
+    for (int& u : plan.unknown_of_node) {
+      if (u >= 0) u = position[u];
+    }
   }
   std::vector<Eigen::Triplet<double, int>> entries;
   entries.reserve(plan.unknowns + net.pipes.size());
@@ -27,7 +34,7 @@ AssemblyPlan plan_assembly(const Network& net) {
   for (const Pipe& p : net.pipes) {
     const int a = plan.unknown_of_node[p.from];
     const int b = plan.unknown_of_node[p.to];
-    if (a >= 0 && b >= 0) entries.emplace_back(std::max(a, b), std::min(a, b), 0.0);
+    if (a >= 0 && b >= 0) entries.emplace_back(std::min(a, b), std::max(a, b), 0.0);
   }
   plan.matrix.resize(plan.unknowns, plan.unknowns);
   plan.matrix.setFromTriplets(entries.begin(), entries.end());
@@ -44,7 +51,7 @@ AssemblyPlan plan_assembly(const Network& net) {
     const int b = plan.unknown_of_node[net.pipes[k].to];
     if (a >= 0) plan.from_slot[k] = plan.diagonal_slot[a];
     if (b >= 0) plan.to_slot[k] = plan.diagonal_slot[b];
-    if (a >= 0 && b >= 0) plan.off_slot[k] = slot_of(plan.matrix, std::max(a, b), std::min(a, b));
+    if (a >= 0 && b >= 0) plan.off_slot[k] = slot_of(plan.matrix, std::min(a, b), std::max(a, b));
   }
   return plan;
 }

@@ -23,14 +23,18 @@ inline constexpr int kNoSlot = -1;
 struct AssemblyPlan {
   int unknowns = 0;                 // number of junctions
   std::vector<int> unknown_of_node; // -1 for fixed-head nodes
+  bool fill_reducing = false;       // numbered by a fill-reducing order: factorise as it is
   std::vector<int> diagonal_slot;   // per unknown
   std::vector<int> from_slot;       // per link: diagonal slot of `from`, or kNoSlot if fixed
   std::vector<int> to_slot;
   std::vector<int> off_slot;        // per link: off-diagonal slot, kNoSlot unless both free
-  LowerMatrix matrix;               // the pattern; values are overwritten by assemble_matrix
+  SymmetricMatrix matrix;               // the pattern; values are overwritten by assemble_matrix
 };
 
-AssemblyPlan plan_assembly(const Network& network);
+// Unknowns are the junctions in file order, or, when `order` is given (one entry per junction,
+// as from postordered_amd on the file-order plan), numbered so that junction order[k] is
+// unknown k.
+AssemblyPlan plan_assembly(const Network& network, const std::vector<int>& order = {});
 
 // Writes the values of A into plan->matrix. `conductance` has one entry per link (0 for an
 // inactive link); `unsupplied` one per node.

@@ -34,7 +34,7 @@ void ControlValves::fix_flows(std::vector<double>* flow) const {
 }
 
 void ControlValves::assemble(const AssemblyPlan& plan, const std::vector<char>& link_active,
-                             Eigen::VectorXd* rhs, LowerMatrix* matrix) const {
+                             Eigen::VectorXd* rhs, SymmetricMatrix* matrix) const {
   double* v = matrix->valuePtr();
   for (std::size_t k : valves_) {
     if (mode_[k] != ValveMode::kActive || !link_active[k]) continue;
@@ -63,7 +63,7 @@ void ControlValves::update_flows(const std::vector<char>& link_active,
   }
 }
 
-bool ControlValves::release_floating(const AssemblyPlan& plan, const LowerMatrix& matrix,
+bool ControlValves::release_floating(const AssemblyPlan& plan, const SymmetricMatrix& matrix,
                                      const std::vector<char>& supplied) {
   const double* v = matrix.valuePtr();
   bool changed = false;

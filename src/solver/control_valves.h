@@ -54,13 +54,13 @@ class ControlValves {
   void fix_flows(std::vector<double>* flow) const;
   // Matrix and right-hand side terms of the active valves (after the ordinary assembly).
   void assemble(const AssemblyPlan& plan, const std::vector<char>& link_active,
-                Eigen::VectorXd* rhs, LowerMatrix* matrix) const;
+                Eigen::VectorXd* rhs, SymmetricMatrix* matrix) const;
   // New flows of the active valves from the new heads.
   void update_flows(const std::vector<char>& link_active, const std::vector<double>& head,
                     std::vector<double>* flow) const;
   // A node held only by active valves (a zone fed through an active PSV or FCV alone) has no
   // head reference: such a valve cannot control, so it is opened. True when any was opened.
-  bool release_floating(const AssemblyPlan& plan, const LowerMatrix& matrix,
+  bool release_floating(const AssemblyPlan& plan, const SymmetricMatrix& matrix,
                         const std::vector<char>& supplied);
   // Mode changes after a step; true when any mode changed.
   bool update_modes(const std::vector<char>& supplied, const std::vector<double>& head,

@@ -63,6 +63,7 @@ class GradientSolver {
   std::vector<int> toggles_;
   std::vector<int> direction_;  // +1, -1: one-way link; 0: two-way
   std::vector<double> demand_, headloss_, dh_dq_, conductance_;
+  std::vector<double> colebrook_x_;  // per pipe: last Colebrook root, warm start of the next
   Eigen::VectorXd rhs_, x_;
   SolveTiming timing_;
   int iterations_ = 0;
@@ -88,7 +89,7 @@ void GradientSolver::evaluate(const State& s) {
       dh_dq_[k] = 0.0;
       continue;
     }
-    LinkEval e = evaluate_pipe(laws_[k], s.flow[k]);
+    LinkEval e = evaluate_pipe(laws_[k], s.flow[k], &colebrook_x_[k]);
     headloss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
   }
@@ -247,8 +248,15 @@ SolveResult GradientSolver::run() {
   t = Clock::now();
   if (!reuse) {
     // The pattern depends on the topology only: plan and analyse once, refactorise after.
+    // Renumber the junctions once by the postordered AMD order, then factorise as numbered.
     cache_.plan = plan_assembly(net_);
-    cache_.cholesky = make_sparse_cholesky();
+    std::vector<int> order = postordered_amd(cache_.plan.matrix);
+    if (!order.empty()) {
+      cache_.plan = plan_assembly(net_, order);
+      cache_.plan.fill_reducing = true;
+    }
+    cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodSimplicial,
+                                           order.empty() ? Ordering::kAmd : Ordering::kNatural);
     cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
     cache_.remember(net_);
     ++cache_.analyses;
@@ -286,6 +294,7 @@ SolveResult GradientSolver::run() {
   }
   headloss_.assign(links, 0.0);
   dh_dq_.assign(links, 0.0);
+  colebrook_x_.assign(links, 0.0);
   conductance_.assign(links, 0.0);
   rhs_.resize(cache_.plan.unknowns);
   if (!analysed) return finish(s, Termination::kLinearSolverFailed, "symbolic analysis failed");
@@ -391,7 +400,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     ls.valve_mode = valves_.mode(k);
     ls.energy_residual_m = link_res[k];
     if (!active_[k]) continue;
-    LinkEval e = evaluate_pipe(laws_[k], s.flow[k]);
+    LinkEval e = evaluate_pipe(laws_[k], s.flow[k], &colebrook_x_[k]);
     ls.flow_m3s = s.flow[k];
     ls.velocity_ms = laws_[k].pump ? 0.0 : s.flow[k] / laws_[k].area_m2;
     ls.headloss_m = valves_.active(k) ? s.head[net_.pipes[k].from] - s.head[net_.pipes[k].to]

@@ -12,11 +12,11 @@ class EigenBackedCholesky final : public SparseCholesky {
  public:
   explicit EigenBackedCholesky(const char* name) : name_(name) {}
   Solver& solver() { return solver_; }
-  bool analyze(const LowerMatrix& pattern) override {
+  bool analyze(const SymmetricMatrix& pattern) override {
     solver_.analyzePattern(pattern);
     return solver_.info() == Eigen::Success;
   }
-  bool factorize(const LowerMatrix& matrix) override {
+  bool factorize(const SymmetricMatrix& matrix) override {
     solver_.factorize(matrix);
     return solver_.info() == Eigen::Success;
   }
@@ -32,37 +32,72 @@ class EigenBackedCholesky final : public SparseCholesky {
 };
 
 // One ordering only: AMD analyses fastest on network matrices, and CHOLMOD's default of trying
-// several orderings costs more than it saves here.
-void use_amd(cholmod_common& c) {
+// several orderings costs more than it saves here. A matrix already in pivot order is taken as
+// it is (no postorder either, which would renumber it again).
+void set_ordering(cholmod_common& c, Ordering ordering) {
   c.nmethods = 1;
-  c.method[0].ordering = CHOLMOD_AMD;
-  c.postorder = 1;
+  c.method[0].ordering = ordering == Ordering::kNatural ? CHOLMOD_NATURAL : CHOLMOD_AMD;
+  c.postorder = ordering == Ordering::kNatural ? 0 : 1;
 }
 
 }  // namespace
 
-std::unique_ptr<SparseCholesky> make_sparse_cholesky(CholeskyBackend backend) {
+std::unique_ptr<SparseCholesky> make_sparse_cholesky(CholeskyBackend backend, Ordering ordering) {
   switch (backend) {
     case CholeskyBackend::kEigenSimplicial:
+      if (ordering == Ordering::kNatural) {
+        return std::make_unique<EigenBackedCholesky<
+            Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::NaturalOrdering<int>>>>(
+            "eigen-simplicial-ldlt");
+      }
       return std::make_unique<EigenBackedCholesky<
-          Eigen::SimplicialLDLT<LowerMatrix, Eigen::Lower, Eigen::AMDOrdering<int>>>>(
+          Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::AMDOrdering<int>>>>(
           "eigen-simplicial-ldlt");
     case CholeskyBackend::kCholmodAuto: {
       // Supernodal or simplicial as CHOLMOD's analysis decides (supernodal when the flops per
       // nonzero of L reach its supernodal_switch, 40 by default).
-      auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodDecomposition<LowerMatrix, Eigen::Lower>>>(
+      auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodDecomposition<SymmetricMatrix, Eigen::Upper>>>(
           "cholmod-auto");
       b->solver().setMode(Eigen::CholmodAuto);
-      use_amd(b->solver().cholmod());
+      set_ordering(b->solver().cholmod(), ordering);
       return b;
     }
     case CholeskyBackend::kCholmodSimplicial:
       break;
   }
-  auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodSimplicialLDLT<LowerMatrix, Eigen::Lower>>>(
+  auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodSimplicialLDLT<SymmetricMatrix, Eigen::Upper>>>(
       "cholmod-simplicial-ldlt");
-  use_amd(b->solver().cholmod());
+  set_ordering(b->solver().cholmod(), ordering);
   return b;
+}
+
+std::vector<int> postordered_amd(const SymmetricMatrix& pattern) {
+  const int n = static_cast<int>(pattern.rows());
+  std::vector<int> order;
+  if (n == 0) return order;
+  cholmod_sparse a{};
+  a.nrow = a.ncol = static_cast<std::size_t>(n);
+  a.nzmax = static_cast<std::size_t>(pattern.nonZeros());
+  a.p = const_cast<int*>(pattern.outerIndexPtr());
+  a.i = const_cast<int*>(pattern.innerIndexPtr());
+  a.stype = 1;  // upper triangle
+  a.itype = CHOLMOD_INT;
+  a.xtype = CHOLMOD_PATTERN;
+  a.dtype = CHOLMOD_DOUBLE;
+  a.sorted = 1;
+  a.packed = 1;
+  cholmod_common c;
+  cholmod_start(&c);
+  set_ordering(c, Ordering::kAmd);
+  c.supernodal = CHOLMOD_SIMPLICIAL;
+  cholmod_factor* l = cholmod_analyze(&a, &c);
+  if (l != nullptr && c.status == CHOLMOD_OK) {
+    const int* perm = static_cast<const int*>(l->Perm);
+    order.assign(perm, perm + n);
+  }
+  cholmod_free_factor(&l, &c);
+  cholmod_finish(&c);
+  return order;
 }
 
 }  // namespace gradeline

@@ -7,28 +7,40 @@
 #include <Eigen/Sparse>
 #include <memory>
 #include <string>
+#include <vector>
 
 namespace gradeline {
 
-// Only the lower triangle (column-compressed) is read.
-using LowerMatrix = Eigen::SparseMatrix<double, Eigen::ColMajor, int>;
+// Only the upper triangle (column-compressed, row <= column) is stored and read. CHOLMOD then
+// factorises a matrix already in pivot order (natural ordering) without any transpose.
+using SymmetricMatrix = Eigen::SparseMatrix<double, Eigen::ColMajor, int>;
 
 class SparseCholesky {
  public:
   virtual ~SparseCholesky() = default;
-  virtual bool analyze(const LowerMatrix& pattern) = 0;
-  virtual bool factorize(const LowerMatrix& matrix) = 0;
+  virtual bool analyze(const SymmetricMatrix& pattern) = 0;
+  virtual bool factorize(const SymmetricMatrix& matrix) = 0;
   virtual bool solve(const Eigen::VectorXd& rhs, Eigen::VectorXd* x) = 0;
   virtual const char* backend() const = 0;
 };
 
 enum class CholeskyBackend {
-  kCholmodSimplicial,  // CHOLMOD LDL^T with AMD ordering (SuiteSparse)
+  kCholmodSimplicial,  // CHOLMOD LDL^T (SuiteSparse)
   kCholmodAuto,        // CHOLMOD, supernodal or simplicial as its analysis decides
   kEigenSimplicial,    // Eigen's own LDL^T with AMD ordering, for cross-checks
 };
 
+// Which ordering the backend applies in analyze(): AMD (Amestoy, Davis & Duff 1996), or none
+// for a matrix whose unknowns are already numbered in a fill-reducing order.
+enum class Ordering { kAmd, kNatural };
+
 std::unique_ptr<SparseCholesky> make_sparse_cholesky(
-    CholeskyBackend backend = CholeskyBackend::kCholmodSimplicial);
+    CholeskyBackend backend = CholeskyBackend::kCholmodSimplicial, Ordering ordering = Ordering::kAmd);
+
+// CHOLMOD's AMD ordering of `pattern`, postordered by its elimination tree: order[k] is the
+// unknown to eliminate k-th. Numbering the unknowns in this order and then factorising with
+// the natural ordering gives the same fill, and every step of the factorisation, the solve and
+// the assembly walks memory in order. Empty on failure.
+std::vector<int> postordered_amd(const SymmetricMatrix& pattern);
 
 }  // namespace gradeline
