@@ -12,9 +12,9 @@ TEST_CASE("a statement has a keyword, positional fields, then key=value pairs") 
   CHECK_FALSE(r.empty);
   CHECK(s.line == 7);
   CHECK(s.keyword == "pipe");
-  CHECK(s.positional == std::vector<std::string>{"P1", "N1", "N2"});
+  CHECK(s.positional == std::vector<std::string_view>{"P1", "N1", "N2"});
   REQUIRE(s.options.size() == 2);
-  CHECK(s.options[0] == std::make_pair(std::string("length"), std::string("410m")));
+  CHECK(s.options[0] == std::make_pair(std::string_view("length"), std::string_view("410m")));
   CHECK(s.options[1].second == "300mm");
 }
 
@@ -24,7 +24,7 @@ TEST_CASE("comments, blank lines, tabs and CR are whitespace") {
   CHECK(lex_line("\t\r", 2, &s).empty);
   LexResult r = lex_line("node\tN1\televation=5\r", 3, &s);
   CHECK_FALSE(r.empty);
-  CHECK(s.positional == std::vector<std::string>{"N1"});
+  CHECK(s.positional == std::vector<std::string_view>{"N1"});
   CHECK(s.options[0].second == "5");
 }
 
@@ -58,4 +58,16 @@ TEST_CASE("IDs may hold unusual printable characters but no separators") {
   CHECK_FALSE(is_valid_id(""));
   CHECK_FALSE(is_valid_id("a,b"));
   CHECK_FALSE(is_valid_id(std::string(kMaxIdLength + 1, 'a')));
+}
+
+TEST_CASE("a statement reused for the next line holds only that line's fields") {
+  Statement s;
+  REQUIRE(lex_line("pipe P1 N1 N2 length=410m diameter=300mm", 1, &s).error.empty());
+  REQUIRE(lex_line("node N9 elevation=5", 2, &s).error.empty());
+  CHECK(s.line == 2);
+  CHECK(s.keyword == "node");
+  CHECK(s.positional == std::vector<std::string_view>{"N9"});
+  REQUIRE(s.options.size() == 1);
+  CHECK(s.options[0].first == "elevation");
+  CHECK(s.rest == "N9 elevation=5");
 }

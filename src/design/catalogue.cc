@@ -63,7 +63,7 @@ CatalogueResult parse_catalogue_text(std::string_view text, const std::string& f
       continue;
     }
     if (s.keyword != "catalogue") {
-      d.error(file, line, "unknown statement '" + s.keyword +
+      d.error(file, line, "unknown statement '" + std::string(s.keyword) +
                               "' (a catalogue holds title, units, catalogue and mobilisation)");
       continue;
     }
@@ -80,8 +80,8 @@ CatalogueResult parse_catalogue_text(std::string_view text, const std::string& f
     if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) item.diameter_m = *v;
     item.roughness_m = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange);
     item.cfactor = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange);
-    if (const std::string* cost = o.find("cost")) {
-      if (auto v = cost_per_m(o, *cost, units)) item.cost_per_m = *v;
+    if (const std::string_view* cost = o.find("cost")) {
+      if (auto v = cost_per_m(o, std::string(*cost), units)) item.cost_per_m = *v;
     }
     if (law == HeadlossLaw::kDarcyWeisbach && !o.has("roughness")) {
       o.error("catalogue '" + item.id + "': missing roughness (the network uses darcy-weisbach)");

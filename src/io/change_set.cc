@@ -48,17 +48,17 @@ Target ChangeApplier::find(const Statement& s, std::size_t* index, Statement* re
     rest->positional.erase(rest->positional.begin());
   }
   if (rest->positional.size() != 1) {
-    error(s.line, s.keyword + " needs one element ID");
+    error(s.line, std::string(s.keyword) + " needs one element ID");
     return Target::kNone;
   }
-  const std::string& id = rest->positional[0];
+  const std::string id(rest->positional[0]);
   auto pipe = net_->find_pipe(id);
   auto node = net_->find_node(id);
   if (kind == "pipe") node.reset();
   if (kind == "node" || kind == "reservoir") pipe.reset();
   if (pipe && node) {
-    error(s.line, s.keyword + ": '" + id + "' is both a node and a pipe; write '" + s.keyword +
-                      " pipe " + id + "' or '" + s.keyword + " node " + id + "'");
+    error(s.line, std::string(s.keyword) + ": '" + id + "' is both a node and a pipe; write '" + std::string(s.keyword) +
+                      " pipe " + id + "' or '" + std::string(s.keyword) + " node " + id + "'");
     return Target::kNone;
   }
   if (pipe) {
@@ -70,18 +70,18 @@ Target ChangeApplier::find(const Statement& s, std::size_t* index, Statement* re
     return Target::kNode;
   }
   std::string what = kind.empty() ? "pipe or node" : kind;
-  error(s.line, s.keyword + ": no " + what + " '" + id + "' in the network");
+  error(s.line, std::string(s.keyword) + ": no " + what + " '" + id + "' in the network");
   return Target::kNone;
 }
 
 void ChangeApplier::statement(const Statement& s) {
-  const std::string& k = s.keyword;
+  const std::string_view k = s.keyword;
   if (k == "title") {
     title_ = s.rest;
     return;
   }
   if (k == "units") {
-    std::string v = s.positional.size() == 1 ? s.positional[0] : "";
+    std::string v = s.positional.size() == 1 ? std::string(s.positional[0]) : std::string();
     std::transform(v.begin(), v.end(), v.begin(), ::toupper);
     if (changed_) {
       error(s.line, "'units' must come before the first change");
@@ -105,8 +105,8 @@ void ChangeApplier::statement(const Statement& s) {
   } else if (k == "remove") {
     remove(s);
   } else {
-    std::string message = "unknown change '" + k + "'";
-    std::string near = nearest_word(k, kChangeKeywords);
+    std::string message = "unknown change '" + std::string(k) + "'";
+    std::string near = nearest_word(std::string(k), kChangeKeywords);
     if (!near.empty()) message += " (did you mean '" + near + "'?)";
     error(s.line, message);
   }
@@ -129,11 +129,11 @@ void ChangeApplier::modify(const Statement& s) {
     if (auto v = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"})) {
       pump.efficiency = v;
     }
-    if (const std::string* status = o.find("status")) {
+    if (const std::string_view* status = o.find("status")) {
       if (*status == "on" || *status == "off") {
         pump.status = *status == "on" ? LinkStatus::kOpen : LinkStatus::kClosed;
       } else {
-        o.error("status must be 'on' or 'off', got '" + *status + "'");
+        o.error("status must be 'on' or 'off', got '" + std::string(*status) + "'");
       }
     }
     return;
@@ -166,7 +166,7 @@ void ChangeApplier::set_status(const Statement& s, LinkStatus status) {
   const Target target = find(s, &index, &rest);
   if (target == Target::kNone) return;
   if (target != Target::kPipe || !s.options.empty()) {
-    error(s.line, s.keyword + " takes one pipe ID");
+    error(s.line, std::string(s.keyword) + " takes one pipe ID");
     return;
   }
   net_->pipes[index].status = status;

@@ -19,13 +19,13 @@ const Range kVelocityRange{0.0, 100.0, false, "100 m/s"};
 namespace {
 
 std::optional<Point> coordinates(StatementOptions& o) {
-  const std::string* at = o.find("at");
+  const std::string_view* at = o.find("at");
   if (at == nullptr) return std::nullopt;
   std::size_t comma = at->find(',');
   Point p;
   if (comma == std::string::npos || !parse_number(at->substr(0, comma), &p.x) ||
       !parse_number(at->substr(comma + 1), &p.y)) {
-    o.error("at must be X,Y with two numbers, got '" + *at + "'");
+    o.error("at must be X,Y with two numbers, got '" + std::string(*at) + "'");
     return std::nullopt;
   }
   return p;
@@ -39,19 +39,19 @@ void error(Diagnostics* d, const SourceLocation& w, std::string message) {
 
 bool read_ids(const Statement& s, std::size_t count, const char* shape, const ReadContext& c) {
   if (s.positional.size() < count) {
-    c.diagnostics->error(c.file, s.line, s.keyword + " needs " + shape);
+    c.diagnostics->error(c.file, s.line, std::string(s.keyword) + " needs " + shape);
     return false;
   }
   if (s.positional.size() > count) {
     c.diagnostics->error(c.file, s.line,
-                         "too many fields for " + s.keyword + ": '" + s.positional[count] + "'");
+                         "too many fields for " + std::string(s.keyword) + ": '" + std::string(s.positional[count]) + "'");
     return false;
   }
-  for (const std::string& id : s.positional) {
+  for (std::string_view id : s.positional) {
     if (!is_valid_id(id)) {
       c.diagnostics->error(
           c.file, s.line,
-          "invalid ID '" + id + "': an ID has 1 to 64 characters and no space, '#', '=' or ','");
+          "invalid ID '" + std::string(id) + "': an ID has 1 to 64 characters and no space, '#', '=' or ','");
       return false;
     }
   }
@@ -89,16 +89,16 @@ const std::vector<std::string> kJunctionKeys = {"elevation", "demand", "at"};
 void read_junction_keys(StatementOptions& o, Node* n) {
   if (o.has("at")) n->at = coordinates(o);
   if (auto z = o.quantity("elevation", Dimension::kLength, kElevationRange)) n->elevation_m = *z;
-  if (const std::string* demand = o.find("demand")) {
+  if (const std::string_view* demand = o.find("demand")) {
     // demand=FLOW or demand=FLOW:CATEGORY
-    std::string text = *demand;
+    std::string text(*demand);
     std::size_t colon = text.find(':');
     std::string category;
     if (colon != std::string::npos) {
       category = text.substr(colon + 1);
       text = text.substr(0, colon);
       if (category.empty() || !is_valid_id(category)) {
-        o.error("demand category must be a name after ':', got '" + *demand + "'");
+        o.error("demand category must be a name after ':', got '" + std::string(*demand) + "'");
         return;
       }
     }
@@ -138,27 +138,27 @@ void read_pipe_keys(StatementOptions& o, PipeRead* p) {
     p->minor_given = true;
     if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) p->pipe.minor_k = *v;
   }
-  if (const std::string* status = o.find("status")) {
+  if (const std::string_view* status = o.find("status")) {
     if (*status == "open") {
       p->pipe.status = LinkStatus::kOpen;
     } else if (*status == "closed") {
       p->pipe.status = LinkStatus::kClosed;
     } else {
-      o.error("status must be 'open' or 'closed', got '" + *status + "'");
+      o.error("status must be 'open' or 'closed', got '" + std::string(*status) + "'");
     }
   }
-  if (const std::string* resize = o.find("resize")) {
+  if (const std::string_view* resize = o.find("resize")) {
     if (*resize == "yes" || *resize == "no") {
       p->pipe.resizable = *resize == "yes";
     } else {
-      o.error("resize must be 'yes' or 'no', got '" + *resize + "'");
+      o.error("resize must be 'yes' or 'no', got '" + std::string(*resize) + "'");
     }
   }
-  if (const std::string* check = o.find("check")) {
+  if (const std::string_view* check = o.find("check")) {
     if (*check == "yes" || *check == "no") {
       p->pipe.check_valve = *check == "yes";
     } else {
-      o.error("check must be 'yes' or 'no', got '" + *check + "'");
+      o.error("check must be 'yes' or 'no', got '" + std::string(*check) + "'");
     }
   }
 }
@@ -245,7 +245,7 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
   p.to_id = s.positional[2];
   p.pipe.where = {c.file, s.line};
   p.roughness_given = p.cfactor_given = true;
-  const std::string* type = o.find("type");
+  const std::string_view* type = o.find("type");
   if (type == nullptr) {
     o.error("valve '" + p.pipe.id + "': missing required key 'type'");
     return std::nullopt;
@@ -259,7 +259,7 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
   } else if (*type == "throttle") {
     p.pipe.kind = LinkKind::kThrottle;
   } else {
-    o.error("valve type must be prv, psv, fcv or throttle, got '" + *type + "'");
+    o.error("valve type must be prv, psv, fcv or throttle, got '" + std::string(*type) + "'");
     return std::nullopt;
   }
   if (!o.has("diameter")) o.error("valve '" + p.pipe.id + "': missing required key 'diameter'");
@@ -290,11 +290,11 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
       p.pipe.valve_flow_m3s = *q;
     }
   }
-  if (const std::string* status = o.find("status")) {
+  if (const std::string_view* status = o.find("status")) {
     if (*status == "open" || *status == "closed") {
       p.pipe.status = *status == "open" ? LinkStatus::kOpen : LinkStatus::kClosed;
     } else {
-      o.error("status must be 'open' or 'closed', got '" + *status + "'");
+      o.error("status must be 'open' or 'closed', got '" + std::string(*status) + "'");
     }
   }
   if (p.from_id == p.to_id) {
@@ -315,12 +315,12 @@ std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
   p.pipe.where = {c.file, s.line};
   p.roughness_given = p.cfactor_given = true;  // no friction law applies
   if (!o.has("curve")) o.error("pump '" + p.pipe.id + "': missing required key 'curve'");
-  if (const std::string* curve = o.find("curve")) {
+  if (const std::string_view* curve = o.find("curve")) {
     std::size_t start = 0;
     bool ok = true;
     while (ok && start <= curve->size()) {
       std::size_t comma = curve->find(',', start);
-      std::string point = curve->substr(start, comma == std::string::npos ? std::string::npos : comma - start);
+      std::string point(curve->substr(start, comma == std::string::npos ? std::string::npos : comma - start));
       std::size_t colon = point.find(':');
       if (colon == std::string::npos) {
         o.error("curve points are FLOW:HEAD, got '" + point + "'");
@@ -340,13 +340,13 @@ std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
   }
   if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) p.pipe.speed = *v;
   p.pipe.efficiency = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"});
-  if (const std::string* status = o.find("status")) {
+  if (const std::string_view* status = o.find("status")) {
     if (*status == "open" || *status == "on") {
       p.pipe.status = LinkStatus::kOpen;
     } else if (*status == "closed" || *status == "off") {
       p.pipe.status = LinkStatus::kClosed;
     } else {
-      o.error("status must be 'on' or 'off', got '" + *status + "'");
+      o.error("status must be 'on' or 'off', got '" + std::string(*status) + "'");
     }
   }
   if (p.from_id == p.to_id) {
@@ -481,12 +481,12 @@ std::optional<LimitRead> read_limit(const Statement& s, const ReadContext& c) {
       }
     }
     if (!o.has("min") && !o.has("max")) o.error("limit pressure needs min= or max=");
-    if (const std::string* name = o.find("case")) r.case_name = *name;
+    if (const std::string_view* name = o.find("case")) r.case_name = *name;
   } else {
     StatementOptions o(s, {"max", "case"}, c.file, c.units, c.diagnostics);
     r.max_velocity_ms = o.quantity("max", Dimension::kVelocity, kVelocityRange);
     if (!o.has("max")) o.error("limit velocity needs max=");
-    if (const std::string* name = o.find("case")) r.case_name = *name;
+    if (const std::string_view* name = o.find("case")) r.case_name = *name;
   }
   return r;
 }

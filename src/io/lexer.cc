@@ -48,8 +48,11 @@ LexResult lex_line(std::string_view line, int line_number, Statement* out) {
   if (line.empty()) return result;
   result.empty = false;
 
-  *out = Statement{};
   out->line = line_number;
+  out->keyword = {};
+  out->positional.clear();
+  out->options.clear();
+  out->rest = {};
   std::size_t i = 0;
   bool first = true;
   while (i < line.size()) {
@@ -59,8 +62,8 @@ LexResult lex_line(std::string_view line, int line_number, Statement* out) {
     while (j < line.size() && !is_space(line[j])) ++j;
     std::string_view field = line.substr(i, j - i);
     if (first) {
-      out->keyword = std::string(field);
-      out->rest = std::string(trim(line.substr(j)));
+      out->keyword = field;
+      out->rest = trim(line.substr(j));
       first = false;
     } else {
       std::size_t eq = field.find('=');
@@ -75,8 +78,7 @@ LexResult lex_line(std::string_view line, int line_number, Statement* out) {
         result.error = "'" + std::string(field) + "' has no key before '='";
         return result;
       } else {
-        out->options.emplace_back(std::string(field.substr(0, eq)),
-                                  std::string(field.substr(eq + 1)));
+        out->options.emplace_back(field.substr(0, eq), field.substr(eq + 1));
       }
     }
     i = j;

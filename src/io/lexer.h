@@ -14,12 +14,14 @@ namespace gradeline {
 inline constexpr std::size_t kMaxLineLength = 4096;
 inline constexpr std::size_t kMaxIdLength = 64;
 
+// The fields view the line they were split from, which must outlive the statement. A statement
+// reused for line after line keeps the capacity of its vectors, so lexing does not allocate.
 struct Statement {
   int line = 0;
-  std::string keyword;
-  std::vector<std::string> positional;
-  std::vector<std::pair<std::string, std::string>> options;  // key, value in file order
-  std::string rest;  // the raw text after the keyword, comment removed (for `title`)
+  std::string_view keyword;
+  std::vector<std::string_view> positional;
+  std::vector<std::pair<std::string_view, std::string_view>> options;  // key, value in file order
+  std::string_view rest;  // the raw text after the keyword, comment removed (for `title`)
 };
 
 struct LexResult {

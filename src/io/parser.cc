@@ -115,7 +115,7 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
 }
 
 void NetworkParser::statement(const Statement& s, const std::string& file, int depth) {
-  const std::string& k = s.keyword;
+  const std::string_view k = s.keyword;
   if (k == "title") {
     net_.title = s.rest;
   } else if (k == "units") {
@@ -152,8 +152,8 @@ void NetworkParser::statement(const Statement& s, const std::string& file, int d
     units_locked_ = true;
     if (auto l = read_limit(s, context(file))) limits_.push_back(std::move(*l));
   } else {
-    std::string message = "unknown statement '" + k + "'";
-    std::string near = nearest_word(k, kKeywords);
+    std::string message = "unknown statement '" + std::string(k) + "'";
+    std::string near = nearest_word(std::string(k), kKeywords);
     if (!near.empty()) message += " (did you mean '" + near + "'?)";
     error(file, s.line, message);
   }
@@ -165,7 +165,7 @@ void NetworkParser::units(const Statement& s, const std::string& file) {
     o.error("units needs one field: SI or US");
     return;
   }
-  std::string v = s.positional[0];
+  std::string v(s.positional[0]);
   std::transform(v.begin(), v.end(), v.begin(), ::toupper);
   if (units_locked_) {
     o.error("'units' must come before the first value with a unit default");
@@ -176,7 +176,7 @@ void NetworkParser::units(const Statement& s, const std::string& file) {
   } else if (v == "US") {
     net_.units = UnitSystem::kUS;
   } else {
-    o.error("unknown unit system '" + s.positional[0] + "' (expected SI or US)");
+    o.error("unknown unit system '" + std::string(s.positional[0]) + "' (expected SI or US)");
   }
   seen_units_ = true;
 }
@@ -188,7 +188,7 @@ void NetworkParser::headloss(const Statement& s, const std::string& file) {
     o.error("headloss needs one field: darcy-weisbach or hazen-williams");
     return;
   }
-  const std::string& law = s.positional[0];
+  const std::string law(s.positional[0]);
   if (law == "darcy-weisbach") {
     net_.headloss.law = HeadlossLaw::kDarcyWeisbach;
     if (!s.options.empty()) o.error("darcy-weisbach takes no options");

@@ -10,19 +10,20 @@ StatementOptions::StatementOptions(const Statement& statement,
                                    Diagnostics* diagnostics,
                                    const std::vector<std::string>& repeatable)
     : statement_(statement), file_(file), units_(units), diagnostics_(diagnostics) {
-  auto admitted = [&](const std::string& key) {
+  auto admitted = [&](std::string_view key) {
     for (const std::string& a : allowed) {
       if (a == key) return true;
-      if (!a.empty() && a.back() == '.' && key.size() > a.size() && key.compare(0, a.size(), a) == 0)
+      if (!a.empty() && a.back() == '.' && key.size() > a.size() && key.substr(0, a.size()) == a)
         return true;
     }
     return false;
   };
   for (std::size_t i = 0; i < statement.options.size(); ++i) {
-    const std::string& key = statement.options[i].first;
+    const std::string_view key = statement.options[i].first;
     if (!admitted(key)) {
-      std::string message = "unknown key '" + key + "' for " + statement.keyword;
-      std::string near = nearest_word(key, allowed);
+      std::string message =
+          "unknown key '" + std::string(key) + "' for " + std::string(statement.keyword);
+      std::string near = nearest_word(std::string(key), allowed);
       if (!near.empty()) message += " (did you mean '" + near + "'?)";
       error(message);
       continue;
@@ -30,34 +31,34 @@ StatementOptions::StatementOptions(const Statement& statement,
     const bool may_repeat = std::find(repeatable.begin(), repeatable.end(), key) != repeatable.end();
     for (std::size_t j = 0; j < i && !may_repeat; ++j) {
       if (statement.options[j].first == key) {
-        error("key '" + key + "' given twice");
+        error("key '" + std::string(key) + "' given twice");
         break;
       }
     }
   }
 }
 
-const std::string* StatementOptions::find(const std::string& key) const {
+const std::string_view* StatementOptions::find(std::string_view key) const {
   for (const auto& [k, v] : statement_.options) {
     if (k == key) return &v;
   }
   return nullptr;
 }
 
-std::vector<std::string> StatementOptions::all(const std::string& key) const {
+std::vector<std::string> StatementOptions::all(std::string_view key) const {
   std::vector<std::string> out;
   for (const auto& [k, v] : statement_.options) {
-    if (k == key) out.push_back(v);
+    if (k == key) out.emplace_back(v);
   }
   return out;
 }
 
 std::vector<std::pair<std::string, std::string>> StatementOptions::with_prefix(
-    const std::string& prefix) const {
+    std::string_view prefix) const {
   std::vector<std::pair<std::string, std::string>> out;
   for (const auto& [k, v] : statement_.options) {
-    if (k.size() > prefix.size() && k.compare(0, prefix.size(), prefix) == 0) {
-      out.emplace_back(k.substr(prefix.size()), v);
+    if (k.size() > prefix.size() && k.substr(0, prefix.size()) == prefix) {
+      out.emplace_back(std::string(k.substr(prefix.size())), std::string(v));
     }
   }
   return out;
@@ -67,32 +68,32 @@ void StatementOptions::error(std::string message) {
   diagnostics_->error(file_, statement_.line, std::move(message));
 }
 
-std::optional<Quantity> StatementOptions::raw_quantity(const std::string& key,
-                                                       Dimension dimension) {
-  const std::string* text = find(key);
+std::optional<Quantity> StatementOptions::raw_quantity(std::string_view key, Dimension dimension) {
+  const std::string_view* text = find(key);
   if (text == nullptr) return std::nullopt;
   UnitParse parsed = parse_quantity(*text, dimension, units_);
   if (!parsed.ok) {
-    error(key + ": " + parsed.error);
+    error(std::string(key) + ": " + parsed.error);
     return std::nullopt;
   }
   return parsed.quantity;
 }
 
-std::optional<double> StatementOptions::quantity(const std::string& key, Dimension dimension,
+std::optional<double> StatementOptions::quantity(std::string_view key, Dimension dimension,
                                                  const Range& range) {
-  const std::string* text = find(key);
+  const std::string_view* text = find(key);
   if (text == nullptr) return std::nullopt;
   return parse(key, *text, dimension, range);
 }
 
-std::optional<double> StatementOptions::parse(const std::string& key, const std::string& text,
+std::optional<double> StatementOptions::parse(std::string_view key_view, std::string_view text_view,
                                               Dimension dimension, const Range& range) {
-  UnitParse parsed = parse_quantity(text, dimension, units_);
+  UnitParse parsed = parse_quantity(text_view, dimension, units_);
   if (!parsed.ok) {
-    error(key + ": " + parsed.error);
+    error(std::string(key_view) + ": " + parsed.error);
     return std::nullopt;
   }
+  const std::string key(key_view), text(text_view);  // for the messages below
   const double v = parsed.quantity.value;
   const bool below = range.min_inclusive ? v < range.min : v <= range.min;
   if (below) {

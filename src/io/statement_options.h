@@ -4,6 +4,7 @@
 
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "gradeline/network.h"
@@ -29,25 +30,26 @@ class StatementOptions {
                    const std::string& file, UnitSystem units, Diagnostics* diagnostics,
                    const std::vector<std::string>& repeatable = {});
 
-  bool has(const std::string& key) const { return find(key) != nullptr; }
-  const std::string* find(const std::string& key) const;
+  bool has(std::string_view key) const { return find(key) != nullptr; }
+  // The value of `key` (a view into the line), or null when absent.
+  const std::string_view* find(std::string_view key) const;
   // Every value of a repeatable key, in file order.
-  std::vector<std::string> all(const std::string& key) const;
+  std::vector<std::string> all(std::string_view key) const;
   // (suffix, value) of every key that starts with `prefix`.
-  std::vector<std::pair<std::string, std::string>> with_prefix(const std::string& prefix) const;
+  std::vector<std::pair<std::string, std::string>> with_prefix(std::string_view prefix) const;
   // Parses `text` (not necessarily a key's whole value) as a quantity; reports errors under `key`.
-  std::optional<double> parse(const std::string& key, const std::string& text, Dimension dimension,
+  std::optional<double> parse(std::string_view key, std::string_view text, Dimension dimension,
                               const Range& range);
 
   // The value as a quantity of `dimension`, in SI; nullopt (with an error reported) when it is
   // missing, malformed or outside `range`.
-  std::optional<double> quantity(const std::string& key, Dimension dimension, const Range& range);
-  std::optional<Quantity> raw_quantity(const std::string& key, Dimension dimension);
+  std::optional<double> quantity(std::string_view key, Dimension dimension, const Range& range);
+  std::optional<Quantity> raw_quantity(std::string_view key, Dimension dimension);
   void error(std::string message);
 
  private:
   const Statement& statement_;
-  std::string file_;
+  const std::string& file_;
   UnitSystem units_;
   Diagnostics* diagnostics_;
 };
