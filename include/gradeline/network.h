@@ -8,8 +8,10 @@
 #include <cstddef>
 #include <optional>
 #include <string>
-#include <unordered_map>
+#include <string_view>
 #include <vector>
+
+#include "gradeline/id_index.h"
 
 namespace gradeline {
 
@@ -149,20 +151,21 @@ struct Network {
   Criteria limits;
   std::vector<CaseCriteria> case_limits;
 
-  std::optional<std::size_t> find_node(const std::string& id) const;
-  std::optional<std::size_t> find_pipe(const std::string& id) const;
+  std::optional<std::size_t> find_node(std::string_view id) const;
+  std::optional<std::size_t> find_pipe(std::string_view id) const;
   // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
   void reindex();
   std::size_t add_node(Node node);
   std::size_t add_pipe(Pipe pipe);
-  // Adds unless the ID is taken; then returns nullopt and leaves the network as it was.
-  std::optional<std::size_t> try_add_node(Node node);
-  std::optional<std::size_t> try_add_pipe(Pipe pipe);
+  // Adds unless the ID is taken; then returns nullopt and leaves both the network and the
+  // element as they were.
+  std::optional<std::size_t> try_add_node(Node&& node);
+  std::optional<std::size_t> try_add_pipe(Pipe&& pipe);
   void reserve(std::size_t nodes, std::size_t pipes);
 
  private:
-  std::unordered_map<std::string, std::size_t> node_index_;
-  std::unordered_map<std::string, std::size_t> pipe_index_;
+  IdIndex node_index_;
+  IdIndex pipe_index_;
 };
 
 // Standard gravity (CGPM 1901), m/s^2.

@@ -380,7 +380,7 @@ bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostic
 }
 
 bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net, Diagnostics* d) {
-  const SourceLocation w = p.pipe.where;
+  const SourceLocation& w = p.pipe.where;
   const std::optional<std::size_t> from = net->find_node(p.from_id);
   const std::optional<std::size_t> to = net->find_node(p.to_id);
   if (!from) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.from_id + "'");
@@ -400,11 +400,10 @@ bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
     p.pipe.valve_head_m = at.elevation_m + p.valve_pressure->to_head_m(net->fluid.density_kgm3);
   }
   const bool ok = check_pipe(p.pipe, net->headloss.law, given, d);
-  const std::string id = p.pipe.id;
-  if (!net->try_add_pipe(std::move(p.pipe))) {
-    const SourceLocation& first = net->pipes[*net->find_pipe(id)].where;
+  if (!net->try_add_pipe(std::move(p.pipe))) {  // p.pipe is left as it was when refused
+    const SourceLocation& first = net->pipes[*net->find_pipe(p.pipe.id)].where;
     error(d, w,
-          "duplicate pipe ID '" + id + "' (first defined at " + first.file + ":" +
+          "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file + ":" +
               std::to_string(first.line) + ")");
     return false;
   }

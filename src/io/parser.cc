@@ -97,7 +97,18 @@ void NetworkParser::parse_file(const std::string& path, int depth, const std::st
 
 void NetworkParser::parse_text(std::string_view text, const std::string& file, int depth) {
   std::vector<std::string_view> lines = split_lines(text);
-  if (depth == 0) net_.reserve(lines.size(), lines.size());  // an upper bound for both
+  if (depth == 0) {
+    // Room for the elements this file declares, counted by first word (includes may add more).
+    std::size_t node_lines = 0, link_lines = 0;
+    for (std::string_view line : lines) {
+      while (!line.empty() && (line.front() == ' ' || line.front() == '\t')) line.remove_prefix(1);
+      const std::string_view word = line.substr(0, line.find_first_of(" \t"));
+      if (word == "node" || word == "reservoir" || word == "tank") ++node_lines;
+      if (word == "pipe" || word == "pump" || word == "valve") ++link_lines;
+    }
+    net_.reserve(node_lines, link_lines);
+    pipes_.reserve(link_lines);
+  }
   if (depth == 0) {
     last_file_ = file;
     last_line_ = std::max<int>(1, static_cast<int>(lines.size()));
@@ -236,15 +247,13 @@ void NetworkParser::defaults(const Statement& s, const std::string& file) {
 }
 
 bool NetworkParser::add_node(Node n, std::size_t* index) {
-  const SourceLocation where = n.where;
-  const std::string id = n.id;
-  if (auto added = net_.try_add_node(std::move(n))) {
+  if (auto added = net_.try_add_node(std::move(n))) {  // n is left as it was when refused
     *index = *added;
     return true;
   }
-  const SourceLocation& first = net_.nodes[*net_.find_node(id)].where;
-  error(where.file, where.line,
-        "duplicate node ID '" + id + "' (first defined at " + first.file + ":" +
+  const SourceLocation& first = net_.nodes[*net_.find_node(n.id)].where;
+  error(n.where.file, n.where.line,
+        "duplicate node ID '" + n.id + "' (first defined at " + first.file + ":" +
             std::to_string(first.line) + ")");
   return false;
 }

@@ -14,16 +14,12 @@ const char* link_kind_name(LinkKind kind) {
   return "pipe";
 }
 
-std::optional<std::size_t> Network::find_node(const std::string& id) const {
-  auto it = node_index_.find(id);
-  if (it == node_index_.end()) return std::nullopt;
-  return it->second;
+std::optional<std::size_t> Network::find_node(std::string_view id) const {
+  return node_index_.find(id, [this](std::size_t i) -> std::string_view { return nodes[i].id; });
 }
 
-std::optional<std::size_t> Network::find_pipe(const std::string& id) const {
-  auto it = pipe_index_.find(id);
-  if (it == pipe_index_.end()) return std::nullopt;
-  return it->second;
+std::optional<std::size_t> Network::find_pipe(std::string_view id) const {
+  return pipe_index_.find(id, [this](std::size_t i) -> std::string_view { return pipes[i].id; });
 }
 
 void Network::reindex() {
@@ -31,8 +27,10 @@ void Network::reindex() {
   pipe_index_.clear();
   node_index_.reserve(nodes.size());
   pipe_index_.reserve(pipes.size());
-  for (std::size_t i = 0; i < nodes.size(); ++i) node_index_.emplace(nodes[i].id, i);
-  for (std::size_t i = 0; i < pipes.size(); ++i) pipe_index_.emplace(pipes[i].id, i);
+  auto node_id = [this](std::size_t i) -> std::string_view { return nodes[i].id; };
+  auto pipe_id = [this](std::size_t i) -> std::string_view { return pipes[i].id; };
+  for (std::size_t i = 0; i < nodes.size(); ++i) node_index_.insert(nodes[i].id, i, node_id);
+  for (std::size_t i = 0; i < pipes.size(); ++i) pipe_index_.insert(pipes[i].id, i, pipe_id);
 }
 
 void Network::reserve(std::size_t node_count, std::size_t pipe_count) {
@@ -43,29 +41,31 @@ void Network::reserve(std::size_t node_count, std::size_t pipe_count) {
 }
 
 std::size_t Network::add_node(Node node) {
-  std::size_t index = nodes.size();
-  node_index_.emplace(node.id, index);
+  const std::size_t index = nodes.size();
+  node_index_.insert(node.id, index, [this](std::size_t i) -> std::string_view { return nodes[i].id; });
   nodes.push_back(std::move(node));
   return index;
 }
 
-std::optional<std::size_t> Network::try_add_node(Node node) {
-  auto [it, inserted] = node_index_.try_emplace(node.id, nodes.size());
+std::optional<std::size_t> Network::try_add_node(Node&& node) {
+  auto [index, inserted] = node_index_.insert(
+      node.id, nodes.size(), [this](std::size_t i) -> std::string_view { return nodes[i].id; });
   if (!inserted) return std::nullopt;
   nodes.push_back(std::move(node));
-  return it->second;
+  return index;
 }
 
-std::optional<std::size_t> Network::try_add_pipe(Pipe pipe) {
-  auto [it, inserted] = pipe_index_.try_emplace(pipe.id, pipes.size());
+std::optional<std::size_t> Network::try_add_pipe(Pipe&& pipe) {
+  auto [index, inserted] = pipe_index_.insert(
+      pipe.id, pipes.size(), [this](std::size_t i) -> std::string_view { return pipes[i].id; });
   if (!inserted) return std::nullopt;
   pipes.push_back(std::move(pipe));
-  return it->second;
+  return index;
 }
 
 std::size_t Network::add_pipe(Pipe pipe) {
-  std::size_t index = pipes.size();
-  pipe_index_.emplace(pipe.id, index);
+  const std::size_t index = pipes.size();
+  pipe_index_.insert(pipe.id, index, [this](std::size_t i) -> std::string_view { return pipes[i].id; });
   pipes.push_back(std::move(pipe));
   return index;
 }

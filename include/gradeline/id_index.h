@@ -1,0 +1,82 @@
+// gradeline public API: the ID lookup of a network's nodes or links.
+//
+// An open-addressing hash table (linear probing, power-of-two capacity, FNV-1a hash) that
+// stores only element indices: the IDs themselves stay in the elements, so adding an element
+// allocates nothing beyond the occasional doubling of one flat array, and a lookup takes a
+// string_view (a field of the line being parsed) without building a std::string.
+#pragma once
+
+#include <cstdint>
+#include <optional>
+#include <string_view>
+#include <vector>
+
+namespace gradeline {
+
+class IdIndex {
+ public:
+  // `id_of(i)` gives the ID of element i; it is called only for elements already added.
+  template <typename IdOf>
+  std::optional<std::size_t> find(std::string_view id, IdOf id_of) const {
+    if (slots_.empty()) return std::nullopt;
+    const std::uint64_t h = hash(id);
+    for (std::size_t s = h & mask(); slots_[s].index != kEmpty; s = (s + 1) & mask()) {
+      if (slots_[s].hash == h && id_of(slots_[s].index) == id) return slots_[s].index;
+    }
+    return std::nullopt;
+  }
+
+  // Adds element `index` under `id` unless the ID is present; returns the index it has.
+  template <typename IdOf>
+  std::pair<std::size_t, bool> insert(std::string_view id, std::size_t index, IdOf id_of) {
+    if ((count_ + 1) * 4 > slots_.size() * 3) rehash(slots_.empty() ? 16 : slots_.size() * 2);
+    const std::uint64_t h = hash(id);
+    std::size_t s = h & mask();
+    for (; slots_[s].index != kEmpty; s = (s + 1) & mask()) {
+      if (slots_[s].hash == h && id_of(slots_[s].index) == id) return {slots_[s].index, false};
+    }
+    slots_[s] = {h, static_cast<std::uint32_t>(index)};
+    ++count_;
+    return {index, true};
+  }
+
+  void clear() {
+    slots_.clear();
+    count_ = 0;
+  }
+  void reserve(std::size_t elements) {
+    std::size_t capacity = 16;
+    while (capacity * 3 < elements * 4) capacity *= 2;
+    if (capacity > slots_.size()) rehash(capacity);
+  }
+
+ private:
+  static constexpr std::uint32_t kEmpty = 0xFFFFFFFFu;
+  struct Slot {
+    std::uint64_t hash = 0;
+    std::uint32_t index = kEmpty;
+  };
+
+  static std::uint64_t hash(std::string_view id) {
+    std::uint64_t h = 1469598103934665603ull;
+    for (unsigned char c : id) h = (h ^ c) * 1099511628211ull;
+    return h ^ (h >> 29);
+  }
+  std::size_t mask() const { return slots_.size() - 1; }
+  void rehash(std::size_t capacity) {
+    std::vector<Slot> old;
+    old.swap(slots_);
+    slots_.assign(capacity, Slot{});
+    for (const Slot& o : old) {
+      if (o.index == kEmpty) continue;
+      std::size_t s = o.hash & mask();
+      while (slots_[s].index != kEmpty) s = (s + 1) & mask();
+      slots_[s] = o;
+    }
+  }
+
+  std::vector<Slot> slots_;
+  std::size_t count_ = 0;
+};
+
+}  // namespace gradeline
