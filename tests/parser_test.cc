@@ -131,5 +131,5 @@ TEST_CASE("include reads a file relative to the including file") {
   ParseResult r = parse_network_file((dir / "main.gln").string());
   for (const auto& e : r.errors) FAIL_CHECK(e.format());
   CHECK(r.network.nodes.size() == 2);
-  CHECK(r.network.nodes[1].where.file == (dir / "parts" / "more.gln").string());
+  CHECK(r.network.nodes[1].where.file() == (dir / "parts" / "more.gln").string());
 }

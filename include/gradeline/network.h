@@ -6,6 +6,7 @@
 #pragma once
 
 #include <cstddef>
+#include <memory>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -24,10 +25,15 @@ struct Point {
   double y = 0.0;
 };
 
-// Where an element was defined, for diagnostics after parsing.
+// Where an element was defined, for diagnostics after parsing. The file name is shared by
+// every element read from that file.
 struct SourceLocation {
-  std::string file;
+  std::shared_ptr<const std::string> file_name;
   int line = 0;
+  const std::string& file() const {
+    static const std::string none;
+    return file_name ? *file_name : none;
+  }
 };
 
 struct Node {

@@ -43,6 +43,7 @@ CatalogueResult parse_catalogue_text(std::string_view text, const std::string& f
   UnitSystem units = UnitSystem::kSI;
   bool seen_item = false;
   Statement s;
+  const auto file_name = std::make_shared<const std::string>(file);
   std::vector<std::string_view> lines = split_lines(text);
   for (std::size_t i = 0; i < lines.size() && !d.full(); ++i) {
     const int line = static_cast<int>(i) + 1;
@@ -69,11 +70,11 @@ CatalogueResult parse_catalogue_text(std::string_view text, const std::string& f
     }
     seen_item = true;
     StatementOptions o(s, {"diameter", "roughness", "cfactor", "cost"}, file, units, &d);
-    ReadContext c{file, units, &d};
+    ReadContext c{file, file_name, units, &d};
     if (!read_ids(s, 1, "an ID", c)) continue;
     CatalogueItem item;
     item.id = s.positional[0];
-    item.where = {file, line};
+    item.where = {file_name, line};
     for (const char* key : {"diameter", "cost"}) {
       if (!o.has(key)) o.error("catalogue '" + item.id + "': missing required key '" + key + "'");
     }

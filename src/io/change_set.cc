@@ -15,13 +15,14 @@ enum class Target { kNone, kPipe, kNode };
 
 class ChangeApplier {
  public:
-  ChangeApplier(const std::string& file, Network* net) : file_(file), net_(net) {}
+  ChangeApplier(const std::string& file, Network* net)
+      : file_(file), file_name_(std::make_shared<const std::string>(file)), net_(net) {}
   void statement(const Statement& s);
   ChangeResult finish(int last_line);
   void error(int line, std::string message) { diagnostics_.error(file_, line, std::move(message)); }
 
  private:
-  ReadContext context() { return {file_, units_, &diagnostics_}; }
+  ReadContext context() { return {file_, file_name_, units_, &diagnostics_}; }
   // Strips an optional kind word ("pipe", "node", "reservoir") and finds the element.
   Target find(const Statement& s, std::size_t* index, Statement* rest);
   void modify(const Statement& s);
@@ -30,6 +31,7 @@ class ChangeApplier {
   void remove(const Statement& s);
 
   std::string file_;
+  std::shared_ptr<const std::string> file_name_;
   Network* net_;
   Diagnostics diagnostics_;
   UnitSystem units_ = net_->units;
@@ -143,7 +145,7 @@ void ChangeApplier::modify(const Statement& s) {
     PipeRead p;
     p.pipe = net_->pipes[index];
     read_pipe_keys(o, &p);
-    p.pipe.where = {file_, s.line};
+    p.pipe.where = {file_name_, s.line};
     if (check_pipe(p.pipe, net_->headloss.law, true, &diagnostics_)) {
       p.pipe.where = net_->pipes[index].where;
       net_->pipes[index] = p.pipe;

@@ -32,7 +32,7 @@ std::optional<Point> coordinates(StatementOptions& o) {
 }
 
 void error(Diagnostics* d, const SourceLocation& w, std::string message) {
-  d->error(w.file, w.line, std::move(message));
+  d->error(w.file(), w.line, std::move(message));
 }
 
 }  // namespace
@@ -65,7 +65,7 @@ std::optional<ReservoirRead> read_reservoir(const Statement& s, const ReadContex
   Node& n = r.node;
   n.id = s.positional[0];
   n.kind = NodeKind::kReservoir;
-  n.where = {c.file, s.line};
+  n.where = {c.file_name, s.line};
   n.at = coordinates(o);
   std::optional<double> head = o.quantity("head", Dimension::kLength, kElevationRange);
   std::optional<double> elevation = o.quantity("elevation", Dimension::kLength, kElevationRange);
@@ -114,7 +114,7 @@ std::optional<Node> read_junction(const Statement& s, const ReadContext& c) {
   if (!read_ids(s, 1, "an ID", c)) return std::nullopt;
   Node n;
   n.id = s.positional[0];
-  n.where = {c.file, s.line};
+  n.where = {c.file_name, s.line};
   if (!o.has("elevation")) o.error("node '" + n.id + "': missing required key 'elevation'");
   read_junction_keys(o, &n);
   return n;
@@ -170,7 +170,7 @@ std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c) {
   p.pipe.id = s.positional[0];
   p.from_id = s.positional[1];
   p.to_id = s.positional[2];
-  p.pipe.where = {c.file, s.line};
+  p.pipe.where = {c.file_name, s.line};
   for (const char* key : {"length", "diameter"}) {
     if (!o.has(key)) o.error("pipe '" + p.pipe.id + "': missing required key '" + key + "'");
   }
@@ -188,7 +188,7 @@ std::optional<Node> read_tank(const Statement& s, const ReadContext& c) {
   Node n;
   n.id = s.positional[0];
   n.kind = NodeKind::kTank;
-  n.where = {c.file, s.line};
+  n.where = {c.file_name, s.line};
   n.at = coordinates(o);
   for (const char* key : {"bottom", "level"}) {
     if (!o.has(key)) o.error("tank '" + n.id + "': missing required key '" + key + "'");
@@ -243,7 +243,7 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
   p.pipe.id = s.positional[0];
   p.from_id = s.positional[1];
   p.to_id = s.positional[2];
-  p.pipe.where = {c.file, s.line};
+  p.pipe.where = {c.file_name, s.line};
   p.roughness_given = p.cfactor_given = true;
   const std::string_view* type = o.find("type");
   if (type == nullptr) {
@@ -312,7 +312,7 @@ std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
   p.pipe.check_valve = true;  // a pump never runs backwards
   p.from_id = s.positional[1];
   p.to_id = s.positional[2];
-  p.pipe.where = {c.file, s.line};
+  p.pipe.where = {c.file_name, s.line};
   p.roughness_given = p.cfactor_given = true;  // no friction law applies
   if (!o.has("curve")) o.error("pump '" + p.pipe.id + "': missing required key 'curve'");
   if (const std::string_view* curve = o.find("curve")) {
@@ -403,7 +403,7 @@ bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
   if (!net->try_add_pipe(std::move(p.pipe))) {  // p.pipe is left as it was when refused
     const SourceLocation& first = net->pipes[*net->find_pipe(p.pipe.id)].where;
     error(d, w,
-          "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file + ":" +
+          "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file() + ":" +
               std::to_string(first.line) + ")");
     return false;
   }
@@ -415,7 +415,7 @@ std::optional<CaseRead> read_case(const Statement& s, const ReadContext& c) {
   if (!read_ids(s, 1, "a name", c)) return std::nullopt;
   CaseRead r;
   r.demand_case.name = s.positional[0];
-  r.demand_case.where = {c.file, s.line};
+  r.demand_case.where = {c.file_name, s.line};
   if (auto f = o.quantity("factor", Dimension::kDimensionless, kFactorRange)) {
     r.demand_case.factor = *f;
   }
@@ -471,7 +471,7 @@ std::optional<LimitRead> read_limit(const Statement& s, const ReadContext& c) {
     return std::nullopt;
   }
   LimitRead r;
-  r.where = {c.file, s.line};
+  r.where = {c.file_name, s.line};
   if (s.positional[0] == "pressure") {
     StatementOptions o(s, {"min", "max", "case"}, c.file, c.units, c.diagnostics);
     for (const char* key : {"min", "max"}) {

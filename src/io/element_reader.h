@@ -19,7 +19,8 @@ extern const Range kLengthRange, kDiameterRange, kRoughnessRange, kElevationRang
     kMinorRange, kCfactorRange, kFactorRange, kVelocityRange;
 
 struct ReadContext {
-  std::string file;
+  const std::string& file;
+  std::shared_ptr<const std::string> file_name;  // the same, shared by the elements read
   UnitSystem units = UnitSystem::kSI;
   Diagnostics* diagnostics = nullptr;
 };

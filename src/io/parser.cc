@@ -50,7 +50,9 @@ class NetworkParser {
   void node(const Statement& s, const std::string& file);
   void pipe(const Statement& s, const std::string& file);
   void include(const Statement& s, const std::string& file, int depth);
-  ReadContext context(const std::string& file) { return {file, net_.units, &diagnostics_}; }
+  ReadContext context(const std::string& file) {
+    return {file, file_names_.back(), net_.units, &diagnostics_};
+  }
   bool add_node(Node n, std::size_t* index);
   void error(const std::string& file, int line, std::string message) {
     diagnostics_.error(file, line, std::move(message));
@@ -63,6 +65,7 @@ class NetworkParser {
   std::vector<CaseRead> cases_;
   std::vector<LimitRead> limits_;
   std::vector<std::string> include_stack_;
+  std::vector<std::shared_ptr<const std::string>> file_names_;  // of the files being read
   bool units_locked_ = false;
   bool seen_units_ = false;
   PipeDefaults defaults_;
@@ -113,6 +116,7 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
     last_file_ = file;
     last_line_ = std::max<int>(1, static_cast<int>(lines.size()));
   }
+  file_names_.push_back(std::make_shared<const std::string>(file));
   Statement s;
   for (std::size_t i = 0; i < lines.size() && !diagnostics_.full(); ++i) {
     const int line = static_cast<int>(i) + 1;
@@ -123,6 +127,7 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
     }
     if (!lexed.empty) statement(s, file, depth);
   }
+  file_names_.pop_back();
 }
 
 void NetworkParser::statement(const Statement& s, const std::string& file, int depth) {
@@ -252,8 +257,8 @@ bool NetworkParser::add_node(Node n, std::size_t* index) {
     return true;
   }
   const SourceLocation& first = net_.nodes[*net_.find_node(n.id)].where;
-  error(n.where.file, n.where.line,
-        "duplicate node ID '" + n.id + "' (first defined at " + first.file + ":" +
+  error(n.where.file(), n.where.line,
+        "duplicate node ID '" + n.id + "' (first defined at " + first.file() + ":" +
             std::to_string(first.line) + ")");
   return false;
 }
@@ -318,8 +323,8 @@ ParseResult NetworkParser::finish() {
                              [&](const CaseRead& x) { return x.demand_case.name == dc.name; });
     if (same != cases_.begin() + static_cast<std::ptrdiff_t>(i)) {
       const SourceLocation& first = same->demand_case.where;
-      error(dc.where.file, dc.where.line,
-            "duplicate case '" + dc.name + "' (first defined at " + first.file + ":" +
+      error(dc.where.file(), dc.where.line,
+            "duplicate case '" + dc.name + "' (first defined at " + first.file() + ":" +
                 std::to_string(first.line) + ")");
       continue;
     }
