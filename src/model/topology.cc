@@ -13,10 +13,16 @@ Topology build_topology(const Network& net) {
   for (std::size_t i = 0; i < n; ++i) t.offsets[i + 1] += t.offsets[i];
   t.links.resize(t.offsets[n]);
   std::vector<std::size_t> next(t.offsets.begin(), t.offsets.end() - 1);
+  t.from.resize(net.pipes.size());
+  t.to.resize(net.pipes.size());
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
     t.links[next[net.pipes[k].from]++] = k;
     t.links[next[net.pipes[k].to]++] = k;
+    t.from[k] = static_cast<std::uint32_t>(net.pipes[k].from);
+    t.to[k] = static_cast<std::uint32_t>(net.pipes[k].to);
   }
+  t.fixed_head.resize(n);
+  for (std::size_t i = 0; i < n; ++i) t.fixed_head[i] = net.nodes[i].is_fixed_head();
   return t;
 }
 

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <vector>
 
 #include "gradeline/network.h"
@@ -11,9 +12,13 @@ namespace gradeline {
 
 // Node-to-link incidence in compressed rows: the links at node n are
 // links[offsets[n]] .. links[offsets[n + 1] - 1].
+// Also each link's end nodes and each node's fixed-head flag, in flat arrays, for the loops of
+// the solver that visit every link per iteration.
 struct Topology {
   std::vector<std::size_t> offsets;
   std::vector<std::size_t> links;
+  std::vector<std::uint32_t> from, to;  // per link
+  std::vector<char> fixed_head;         // per node
 };
 
 Topology build_topology(const Network& network);

@@ -43,7 +43,7 @@ class GradientSolver {
   void update_active_set();
   void evaluate(const State& s);
   ResidualNorms residuals(const State& s) {
-    return compute_residuals(net_, s.flow, headloss_, s.head, demand_, supplied_, active_,
+    return compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_, active_,
                              nullptr, nullptr);
   }
   bool newton_step(State* next);
@@ -114,14 +114,15 @@ bool GradientSolver::newton_step(State* next) {
     const int u = cache_.plan.unknown_of_node[n];
     if (u >= 0 && supplied_[n]) rhs_[u] = -demand_[n];
   }
+  const std::vector<std::uint32_t>& from = cache_.topology.from;
+  const std::vector<std::uint32_t>& to = cache_.topology.to;
   for (std::size_t k = 0; k < links; ++k) {
     if (!active_[k]) continue;
-    const Pipe& p = net_.pipes[k];
-    const int a = cache_.plan.unknown_of_node[p.from];
-    const int b = cache_.plan.unknown_of_node[p.to];
+    const int a = cache_.plan.unknown_of_node[from[k]];
+    const int b = cache_.plan.unknown_of_node[to[k]];
     double y = headloss_[k];  // h(Q) - B0 H0
-    if (a < 0) y -= next->head[p.from];
-    if (b < 0) y += next->head[p.to];
+    if (a < 0) y -= next->head[from[k]];
+    if (b < 0) y += next->head[to[k]];
     const double contribution = conductance_[k] * y - next->flow[k];
     if (a >= 0) rhs_[a] += contribution;
     if (b >= 0) rhs_[b] -= contribution;
@@ -149,8 +150,7 @@ bool GradientSolver::newton_step(State* next) {
       next->flow[k] = 0.0;
       continue;
     }
-    const Pipe& p = net_.pipes[k];
-    const double dh = next->head[p.from] - next->head[p.to];
+    const double dh = next->head[from[k]] - next->head[to[k]];
     next->flow[k] += conductance_[k] * (dh - headloss_[k]);
   }
   if (valves_.any()) valves_.update_flows(active_, next->head, &next->flow);
@@ -301,10 +301,13 @@ SolveResult GradientSolver::run() {
 
   bool evaluated = false;
   bool status_changed = true;
+  bool norms_known = false;  // `norms` already holds the residuals of `s`
   ResidualNorms norms;
+  State next, trial;         // reused from iteration to iteration: no allocation in the loop
   for (int iteration = 0;; ++iteration) {
     if (!evaluated) evaluate(s);
-    norms = residuals(s);
+    if (!norms_known) norms = residuals(s);
+    norms_known = false;
     if (!norms.finite) return finish(s, Termination::kNonFinite, "the state is not finite");
     const bool small = norms.max_energy_m <= options_.energy_tolerance_m &&
                        norms.max_continuity_m3s <= options_.continuity_tolerance_m3s;
@@ -321,7 +324,7 @@ SolveResult GradientSolver::run() {
       return finish(s, Termination::kMaxIterations, "");
     }
     iterations_ = iteration + 1;
-    State next = s;
+    next = s;
     if (!newton_step(&next)) {
       return finish(s, Termination::kLinearSolverFailed,
                     "the global-gradient matrix is not positive definite");
@@ -330,22 +333,28 @@ SolveResult GradientSolver::run() {
     // the energy residual should fall.
     evaluate(next);
     if (iteration > 0 && !status_changed && !valves_.any()) {
-      double old_merit = norms.energy_sum_squares;
-      State trial = next;
+      const double old_merit = norms.energy_sum_squares;
+      bool halved = false;
       double alpha = 1.0;
       for (int halving = 0; halving < options_.max_step_halvings; ++halving) {
-        ResidualNorms r = residuals(trial);
-        if (r.finite && r.energy_sum_squares <= old_merit) break;
+        ResidualNorms r = residuals(halved ? trial : next);
+        if (r.finite && r.energy_sum_squares <= old_merit) {
+          norms = r;
+          norms_known = true;
+          break;
+        }
         alpha *= 0.5;
+        if (!halved) trial = next;
+        halved = true;
         for (std::size_t k = 0; k < links; ++k)
           trial.flow[k] = s.flow[k] + alpha * (next.flow[k] - s.flow[k]);
         for (std::size_t n = 0; n < nodes; ++n)
           trial.head[n] = s.head[n] + alpha * (next.head[n] - s.head[n]);
         evaluate(trial);
       }
-      next = std::move(trial);
+      if (halved) std::swap(next, trial);
     }
-    s = std::move(next);
+    std::swap(s, next);
     evaluated = true;
     status_changed = update_check_valves(s);
     if (valves_.any() && valves_.update_modes(supplied_, s.head, s.flow, kValveHeadTolerance_m,
@@ -358,6 +367,7 @@ SolveResult GradientSolver::run() {
         if (!active_[k]) s.flow[k] = 0.0;
       }
       evaluated = false;
+      norms_known = false;
     }
   }
 }
@@ -372,7 +382,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
 
   std::vector<double> node_res, link_res;
   evaluate(s);
-  ResidualNorms norms = compute_residuals(net_, s.flow, headloss_, s.head, demand_, supplied_,
+  ResidualNorms norms = compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_,
                                           active_, &node_res, &link_res);
   sum.max_continuity_residual_m3s = norms.max_continuity_m3s;
   sum.max_energy_residual_m = norms.max_energy_m;

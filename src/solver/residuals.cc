@@ -4,7 +4,7 @@
 
 namespace gradeline {
 
-ResidualNorms compute_residuals(const Network& net, const std::vector<double>& flow,
+ResidualNorms compute_residuals(const Topology& t, const std::vector<double>& flow,
                                 const std::vector<double>& headloss,
                                 const std::vector<double>& head,
                                 const std::vector<double>& demand,
@@ -15,14 +15,14 @@ ResidualNorms compute_residuals(const Network& net, const std::vector<double>& f
   ResidualNorms r;
   std::vector<double> local;
   std::vector<double>& balance = node_residual ? *node_residual : local;
-  balance.assign(net.nodes.size(), 0.0);
-  if (link_residual) link_residual->assign(net.pipes.size(), 0.0);
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    const Pipe& p = net.pipes[k];
-    balance[p.from] -= flow[k];
-    balance[p.to] += flow[k];
+  balance.assign(t.fixed_head.size(), 0.0);
+  if (link_residual) link_residual->assign(t.from.size(), 0.0);
+  for (std::size_t k = 0; k < t.from.size(); ++k) {
+    const std::uint32_t from = t.from[k], to = t.to[k];
+    balance[from] -= flow[k];
+    balance[to] += flow[k];
     if (!active[k]) continue;
-    const double e = headloss[k] - (head[p.from] - head[p.to]);
+    const double e = headloss[k] - (head[from] - head[to]);
     if (link_residual) (*link_residual)[k] = e;
     if (!std::isfinite(e)) r.finite = false;
     r.energy_sum_squares += e * e;
@@ -31,8 +31,8 @@ ResidualNorms compute_residuals(const Network& net, const std::vector<double>& f
       r.worst_link = k;
     }
   }
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    if (net.nodes[n].is_fixed_head() || !supplied[n]) {
+  for (std::size_t n = 0; n < t.fixed_head.size(); ++n) {
+    if (t.fixed_head[n] || !supplied[n]) {
       balance[n] = 0.0;
       continue;
     }

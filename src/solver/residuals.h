@@ -10,6 +10,7 @@
 
 #include "gradeline/network.h"
 #include "hydraulics/link_law.h"
+#include "model/topology.h"
 
 namespace gradeline {
 
@@ -24,7 +25,7 @@ struct ResidualNorms {
 
 // `headloss` holds h_k(Q_k) for every active link. Per-element residuals are written to
 // node_residual and link_residual when they are not null.
-ResidualNorms compute_residuals(const Network& network, const std::vector<double>& flow_m3s,
+ResidualNorms compute_residuals(const Topology& topology, const std::vector<double>& flow_m3s,
                                 const std::vector<double>& headloss_m,
                                 const std::vector<double>& head_m,
                                 const std::vector<double>& demand_m3s,
