@@ -51,7 +51,7 @@ int main(int argc, char** argv) {
   // in file order (for the AMD analysis) and renumbered by the postordered AMD order, as the
   // solver does (for the factorisation, with the natural ordering, which is CHOLMOD's fastest).
   AssemblyPlan file_order = plan_assembly(net);
-  AssemblyPlan plan = plan_assembly(net, postordered_amd(file_order.matrix));
+  AssemblyPlan plan = plan_assembly(net, junction_order(net));
   std::vector<double> conductance(net.pipes.size(), 0.0);
   std::vector<char> unsupplied(net.nodes.size(), 0);
   for (std::size_t n = 0; n < net.nodes.size(); ++n) unsupplied[n] = !r.nodes[n].supplied;

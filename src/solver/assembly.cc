@@ -2,6 +2,8 @@
 
 #include <algorithm>
 
+#include <amd.h>
+
 namespace gradeline {
 namespace {
 
@@ -15,6 +17,41 @@ int slot_of(const SymmetricMatrix& m, int row, int col) {
 
 }  // namespace
 
+std::vector<int> junction_order(const Network& net) {
+  std::vector<int> unknown(net.nodes.size(), -1);
+  int n = 0;
+  for (std::size_t i = 0; i < net.nodes.size(); ++i) {
+    if (!net.nodes[i].is_fixed_head()) unknown[i] = n++;
+  }
+  // The full pattern (both triangles, no diagonal) in compressed columns; AMD accepts the
+  // duplicate entries that parallel links make.
+  std::vector<int> start(n + 1, 0);
+  for (const Pipe& p : net.pipes) {
+    const int a = unknown[p.from], b = unknown[p.to];
+    if (a >= 0 && b >= 0 && a != b) {
+      ++start[a + 1];
+      ++start[b + 1];
+    }
+  }
+  for (int j = 0; j < n; ++j) start[j + 1] += start[j];
+  std::vector<int> rows(start[n]);
+  std::vector<int> next(start.begin(), start.end() - 1);
+  for (const Pipe& p : net.pipes) {
+    const int a = unknown[p.from], b = unknown[p.to];
+    if (a >= 0 && b >= 0 && a != b) {
+      rows[next[a]++] = b;
+      rows[next[b]++] = a;
+    }
+  }
+  std::vector<int> order(n);
+  if (n == 0) return order;
+  double control[AMD_CONTROL], info[AMD_INFO];
+  amd_defaults(control);
+  const int status = amd_order(n, start.data(), rows.data(), order.data(), control, info);
+  if (status != AMD_OK && status != AMD_OK_BUT_JUMBLED) order.clear();
+  return order;
+}
+
 AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
   AssemblyPlan plan;
   plan.unknown_of_node.assign(net.nodes.size(), -1);
@@ -27,22 +64,44 @@ AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
     for (int& u : plan.unknown_of_node) {
       if (u >= 0) u = position[u];
     }
+    plan.fill_reducing = true;
   }
-  std::vector<Eigen::Triplet<double, int>> entries;
-  entries.reserve(plan.unknowns + net.pipes.size());
-  for (int u = 0; u < plan.unknowns; ++u) entries.emplace_back(u, u, 0.0);
-  for (const Pipe& p : net.pipes) {
-    const int a = plan.unknown_of_node[p.from];
-    const int b = plan.unknown_of_node[p.to];
-    if (a >= 0 && b >= 0) entries.emplace_back(std::min(a, b), std::max(a, b), 0.0);
-  }
-  plan.matrix.resize(plan.unknowns, plan.unknowns);
-  plan.matrix.setFromTriplets(entries.begin(), entries.end());
-  plan.matrix.makeCompressed();
-
-  plan.diagonal_slot.resize(plan.unknowns);
-  for (int u = 0; u < plan.unknowns; ++u) plan.diagonal_slot[u] = slot_of(plan.matrix, u, u);
+  // The upper triangle in compressed columns, built directly: column j holds the rows i < j of
+  // the links between junctions i and j (parallel links share one entry), then the diagonal.
+  const int n = plan.unknowns;
   const std::size_t links = net.pipes.size();
+  std::vector<int> start(n + 1, 0);
+  for (const Pipe& p : net.pipes) {
+    const int a = plan.unknown_of_node[p.from], b = plan.unknown_of_node[p.to];
+    if (a >= 0 && b >= 0 && a != b) ++start[std::max(a, b) + 1];
+  }
+  for (int j = 0; j < n; ++j) start[j + 1] += start[j] + 1;  // + 1: the diagonal
+  std::vector<int> rows(start[n]);
+  std::vector<int> fill(start.begin(), start.end() - 1);
+  for (const Pipe& p : net.pipes) {
+    const int a = plan.unknown_of_node[p.from], b = plan.unknown_of_node[p.to];
+    if (a >= 0 && b >= 0 && a != b) rows[fill[std::max(a, b)]++] = std::min(a, b);
+  }
+  std::vector<int> outer(n + 1, 0);
+  int nnz = 0;
+  for (int j = 0; j < n; ++j) {  // sort each column, drop repeats, end with the diagonal
+    int* first = rows.data() + start[j];
+    int* last = rows.data() + fill[j];
+    std::sort(first, last);
+    last = std::unique(first, last);
+    outer[j] = nnz;
+    for (int* r = first; r != last; ++r) rows[nnz++] = *r;
+    rows[nnz++] = j;
+  }
+  outer[n] = nnz;
+  plan.matrix.resize(n, n);
+  plan.matrix.resizeNonZeros(nnz);
+  std::copy(outer.begin(), outer.end(), plan.matrix.outerIndexPtr());
+  std::copy(rows.begin(), rows.begin() + nnz, plan.matrix.innerIndexPtr());
+  std::fill(plan.matrix.valuePtr(), plan.matrix.valuePtr() + nnz, 0.0);
+
+  plan.diagonal_slot.resize(n);
+  for (int u = 0; u < n; ++u) plan.diagonal_slot[u] = outer[u + 1] - 1;
   plan.from_slot.assign(links, kNoSlot);
   plan.to_slot.assign(links, kNoSlot);
   plan.off_slot.assign(links, kNoSlot);
@@ -51,7 +110,7 @@ AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
     const int b = plan.unknown_of_node[net.pipes[k].to];
     if (a >= 0) plan.from_slot[k] = plan.diagonal_slot[a];
     if (b >= 0) plan.to_slot[k] = plan.diagonal_slot[b];
-    if (a >= 0 && b >= 0) plan.off_slot[k] = slot_of(plan.matrix, std::min(a, b), std::max(a, b));
+    if (a >= 0 && b >= 0 && a != b) plan.off_slot[k] = slot_of(plan.matrix, std::min(a, b), std::max(a, b));
   }
   return plan;
 }

@@ -31,9 +31,15 @@ struct AssemblyPlan {
   SymmetricMatrix matrix;               // the pattern; values are overwritten by assemble_matrix
 };
 
-// Unknowns are the junctions in file order, or, when `order` is given (one entry per junction,
-// as from postordered_amd on the file-order plan), numbered so that junction order[k] is
-// unknown k.
+// The fill-reducing order of the junctions for the matrix's pattern: AMD (Amestoy, Davis &
+// Duff 1996), whose permutation comes postordered by its assembly tree. order[k] is the
+// junction (numbered in file order among the junctions) to eliminate k-th. Numbering the
+// unknowns this way and factorising with the natural ordering gives AMD's fill, and every step
+// of the factorisation and the solve then walks memory in order. Empty if AMD fails.
+std::vector<int> junction_order(const Network& network);
+
+// Unknowns are the junctions in file order, or, when `order` is given (one entry per
+// junction, as from junction_order), numbered so that junction order[k] is unknown k.
 AssemblyPlan plan_assembly(const Network& network, const std::vector<int>& order = {});
 
 // Writes the values of A into plan->matrix. `conductance` has one entry per link (0 for an

@@ -23,6 +23,7 @@ double seconds_since(Clock::time_point t) {
 }
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
+constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
 constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
@@ -83,7 +84,11 @@ void GradientSolver::update_active_set() {
 
 void GradientSolver::evaluate(const State& s) {
   auto t = Clock::now();
-  for (std::size_t k = 0; k < laws_.size(); ++k) {
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(laws_.size());
+  // Each link's law is independent of the others, so large networks share the links among the
+  // cores; the result does not depend on how they are shared.
+#pragma omp parallel for schedule(static) if (links >= kParallelLinks)
+  for (std::ptrdiff_t k = 0; k < links; ++k) {
     if (!active_[k]) {
       headloss_[k] = 0.0;
       dh_dq_[k] = 0.0;
@@ -249,12 +254,8 @@ SolveResult GradientSolver::run() {
   if (!reuse) {
     // The pattern depends on the topology only: plan and analyse once, refactorise after.
     // Renumber the junctions once by the postordered AMD order, then factorise as numbered.
-    cache_.plan = plan_assembly(net_);
-    std::vector<int> order = postordered_amd(cache_.plan.matrix);
-    if (!order.empty()) {
-      cache_.plan = plan_assembly(net_, order);
-      cache_.plan.fill_reducing = true;
-    }
+    const std::vector<int> order = junction_order(net_);
+    cache_.plan = plan_assembly(net_, order);
     cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodSimplicial,
                                            order.empty() ? Ordering::kAmd : Ordering::kNatural);
     cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);

@@ -71,33 +71,4 @@ std::unique_ptr<SparseCholesky> make_sparse_cholesky(CholeskyBackend backend, Or
   return b;
 }
 
-std::vector<int> postordered_amd(const SymmetricMatrix& pattern) {
-  const int n = static_cast<int>(pattern.rows());
-  std::vector<int> order;
-  if (n == 0) return order;
-  cholmod_sparse a{};
-  a.nrow = a.ncol = static_cast<std::size_t>(n);
-  a.nzmax = static_cast<std::size_t>(pattern.nonZeros());
-  a.p = const_cast<int*>(pattern.outerIndexPtr());
-  a.i = const_cast<int*>(pattern.innerIndexPtr());
-  a.stype = 1;  // upper triangle
-  a.itype = CHOLMOD_INT;
-  a.xtype = CHOLMOD_PATTERN;
-  a.dtype = CHOLMOD_DOUBLE;
-  a.sorted = 1;
-  a.packed = 1;
-  cholmod_common c;
-  cholmod_start(&c);
-  set_ordering(c, Ordering::kAmd);
-  c.supernodal = CHOLMOD_SIMPLICIAL;
-  cholmod_factor* l = cholmod_analyze(&a, &c);
-  if (l != nullptr && c.status == CHOLMOD_OK) {
-    const int* perm = static_cast<const int*>(l->Perm);
-    order.assign(perm, perm + n);
-  }
-  cholmod_free_factor(&l, &c);
-  cholmod_finish(&c);
-  return order;
-}
-
 }  // namespace gradeline

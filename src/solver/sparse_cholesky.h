@@ -37,10 +37,4 @@ enum class Ordering { kAmd, kNatural };
 std::unique_ptr<SparseCholesky> make_sparse_cholesky(
     CholeskyBackend backend = CholeskyBackend::kCholmodSimplicial, Ordering ordering = Ordering::kAmd);
 
-// CHOLMOD's AMD ordering of `pattern`, postordered by its elimination tree: order[k] is the
-// unknown to eliminate k-th. Numbering the unknowns in this order and then factorising with
-// the natural ordering gives the same fill, and every step of the factorisation, the solve and
-// the assembly walks memory in order. Empty on failure.
-std::vector<int> postordered_amd(const SymmetricMatrix& pattern);
-
 }  // namespace gradeline
