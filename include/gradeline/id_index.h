@@ -20,8 +20,9 @@ class IdIndex {
   std::optional<std::size_t> find(std::string_view id, IdOf id_of) const {
     if (slots_.empty()) return std::nullopt;
     const std::uint64_t h = hash(id);
+    const std::uint32_t tag = static_cast<std::uint32_t>(h >> 32);
     for (std::size_t s = h & mask(); slots_[s].index != kEmpty; s = (s + 1) & mask()) {
-      if (slots_[s].hash == h && id_of(slots_[s].index) == id) return slots_[s].index;
+      if (slots_[s].tag == tag && id_of(slots_[s].index) == id) return slots_[s].index;
     }
     return std::nullopt;
   }
@@ -31,13 +32,19 @@ class IdIndex {
   std::pair<std::size_t, bool> insert(std::string_view id, std::size_t index, IdOf id_of) {
     if ((count_ + 1) * 4 > slots_.size() * 3) rehash(slots_.empty() ? 16 : slots_.size() * 2);
     const std::uint64_t h = hash(id);
+    const std::uint32_t tag = static_cast<std::uint32_t>(h >> 32);
     std::size_t s = h & mask();
     for (; slots_[s].index != kEmpty; s = (s + 1) & mask()) {
-      if (slots_[s].hash == h && id_of(slots_[s].index) == id) return {slots_[s].index, false};
+      if (slots_[s].tag == tag && id_of(slots_[s].index) == id) return {slots_[s].index, false};
     }
-    slots_[s] = {h, static_cast<std::uint32_t>(index)};
+    slots_[s] = {static_cast<std::uint32_t>(h), tag, static_cast<std::uint32_t>(index)};
     ++count_;
     return {index, true};
+  }
+
+  // A hint that `id` will be looked up soon: starts loading its first slot into the cache.
+  void prefetch(std::string_view id) const {
+    if (!slots_.empty()) __builtin_prefetch(&slots_[hash(id) & mask()]);
   }
 
   void clear() {
@@ -52,8 +59,11 @@ class IdIndex {
 
  private:
   static constexpr std::uint32_t kEmpty = 0xFFFFFFFFu;
+  // 12 bytes: the low half of the hash places the slot again on a rehash, the high half
+  // (tag) screens out almost every non-matching ID before its element is touched.
   struct Slot {
-    std::uint64_t hash = 0;
+    std::uint32_t low = 0;
+    std::uint32_t tag = 0;
     std::uint32_t index = kEmpty;
   };
 
@@ -69,7 +79,7 @@ class IdIndex {
     slots_.assign(capacity, Slot{});
     for (const Slot& o : old) {
       if (o.index == kEmpty) continue;
-      std::size_t s = o.hash & mask();
+      std::size_t s = o.low & mask();
       while (slots_[s].index != kEmpty) s = (s + 1) & mask();
       slots_[s] = o;
     }

@@ -159,6 +159,9 @@ struct Network {
 
   std::optional<std::size_t> find_node(std::string_view id) const;
   std::optional<std::size_t> find_pipe(std::string_view id) const;
+  // Hints that find_node(id) will be called soon (see IdIndex::prefetch).
+  void prefetch_node(std::string_view id) const { node_index_.prefetch(id); }
+  void prefetch_pipe(std::string_view id) const { pipe_index_.prefetch(id); }
   // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
   void reindex();
   std::size_t add_node(Node node);
