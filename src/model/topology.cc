@@ -29,15 +29,14 @@ Topology build_topology(const Network& net) {
 namespace {
 
 // Breadth-first labelling from the seeds in `queue`, marking reached nodes with `label`.
-void flood(const Network& net, const Topology& t, const std::vector<char>& link_open,
-           std::vector<std::size_t>& queue, std::vector<std::size_t>& mark, std::size_t label) {
+void flood(const Topology& t, const std::vector<char>& link_open, std::vector<std::size_t>& queue,
+           std::vector<std::size_t>& mark, std::size_t label) {
   for (std::size_t head = 0; head < queue.size(); ++head) {
     const std::size_t node = queue[head];
     for (std::size_t e = t.offsets[node]; e < t.offsets[node + 1]; ++e) {
       const std::size_t k = t.links[e];
       if (!link_open[k]) continue;
-      const Pipe& p = net.pipes[k];
-      const std::size_t other = p.from == node ? p.to : p.from;
+      const std::size_t other = t.from[k] == node ? t.to[k] : t.from[k];
       if (mark[other] == static_cast<std::size_t>(-1)) {
         mark[other] = label;
         queue.push_back(other);
@@ -53,13 +52,14 @@ std::vector<char> find_supplied(const Network& net, const Topology& t,
   const std::size_t none = static_cast<std::size_t>(-1);
   std::vector<std::size_t> mark(net.nodes.size(), none);
   std::vector<std::size_t> queue;
+  queue.reserve(net.nodes.size());
   for (std::size_t i = 0; i < net.nodes.size(); ++i) {
-    if (net.nodes[i].is_fixed_head()) {
+    if (t.fixed_head[i]) {
       mark[i] = 0;
       queue.push_back(i);
     }
   }
-  flood(net, t, link_open, queue, mark, 0);
+  flood(t, link_open, queue, mark, 0);
   std::vector<char> supplied(net.nodes.size());
   for (std::size_t i = 0; i < mark.size(); ++i) supplied[i] = mark[i] != none;
   return supplied;
@@ -74,7 +74,7 @@ Islands find_islands(const Network& net, const Topology& t, const std::vector<ch
     if (out.island[i] != none) continue;
     out.island[i] = out.count;
     queue.assign(1, i);
-    flood(net, t, link_open, queue, out.island, out.count);
+    flood(t, link_open, queue, out.island, out.count);
     ++out.count;
   }
   return out;

@@ -256,7 +256,7 @@ SolveResult GradientSolver::run() {
     // Renumber the junctions once by the postordered AMD order, then factorise as numbered.
     const std::vector<int> order = junction_order(net_);
     cache_.plan = plan_assembly(net_, order);
-    cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodSimplicial,
+    cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodAuto,
                                            order.empty() ? Ordering::kAmd : Ordering::kNatural);
     cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
     cache_.remember(net_);

@@ -2,6 +2,8 @@
 
 #include <Eigen/CholmodSupport>
 #include <Eigen/SparseCholesky>
+#include <string_view>
+#include <type_traits>
 
 namespace gradeline {
 namespace {
@@ -9,6 +11,10 @@ namespace {
 // One backend over any Eigen sparse Cholesky class with analyzePattern/factorize/solve.
 template <typename Solver>
 class EigenBackedCholesky final : public SparseCholesky {
+  static constexpr bool kIsCholmod = !std::is_same_v<
+      Solver, Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::NaturalOrdering<int>>> &&
+      !std::is_same_v<Solver, Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::AMDOrdering<int>>>;
+
  public:
   explicit EigenBackedCholesky(const char* name) : name_(name) {}
   Solver& solver() { return solver_; }
@@ -24,7 +30,19 @@ class EigenBackedCholesky final : public SparseCholesky {
     *x = solver_.solve(rhs);
     return solver_.info() == Eigen::Success;
   }
-  const char* backend() const override { return name_; }
+  const char* backend() const override {
+    if (std::string_view(name_) != "cholmod-auto" || flops_per_entry() == 0.0) return name_;
+    return flops_per_entry() >= kSupernodalFlopsPerEntry ? "cholmod-supernodal"
+                                                         : "cholmod-simplicial-ldlt";
+  }
+  double flops_per_entry() const override {
+    if constexpr (kIsCholmod) {
+      auto& c = const_cast<Solver&>(solver_).cholmod();
+      return c.lnz > 0 ? c.fl / c.lnz : 0.0;
+    } else {
+      return 0.0;
+    }
+  }
 
  private:
   Solver solver_;
@@ -54,11 +72,11 @@ std::unique_ptr<SparseCholesky> make_sparse_cholesky(CholeskyBackend backend, Or
           Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::AMDOrdering<int>>>>(
           "eigen-simplicial-ldlt");
     case CholeskyBackend::kCholmodAuto: {
-      // Supernodal or simplicial as CHOLMOD's analysis decides (supernodal when the flops per
-      // nonzero of L reach its supernodal_switch, 40 by default).
+      // Supernodal or simplicial as CHOLMOD's analysis decides, by the flops per nonzero of L.
       auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodDecomposition<SymmetricMatrix, Eigen::Upper>>>(
           "cholmod-auto");
       b->solver().setMode(Eigen::CholmodAuto);
+      b->solver().cholmod().supernodal_switch = kSupernodalFlopsPerEntry;
       set_ordering(b->solver().cholmod(), ordering);
       return b;
     }

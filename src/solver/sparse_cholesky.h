@@ -22,19 +22,31 @@ class SparseCholesky {
   virtual bool factorize(const SymmetricMatrix& matrix) = 0;
   virtual bool solve(const Eigen::VectorXd& rhs, Eigen::VectorXd* x) = 0;
   virtual const char* backend() const = 0;
+  // After analyze(): the factorisation's flops per nonzero of L (CHOLMOD's measure of how
+  // "dense" the factor is: about 3 on tree-like networks, over 100 on large grids); 0 if the
+  // backend does not say.
+  virtual double flops_per_entry() const { return 0.0; }
 };
 
 enum class CholeskyBackend {
   kCholmodSimplicial,  // CHOLMOD LDL^T (SuiteSparse)
-  kCholmodAuto,        // CHOLMOD, supernodal or simplicial as its analysis decides
+  kCholmodAuto,        // CHOLMOD, supernodal when the analysis finds at least
+                       // kSupernodalFlopsPerEntry flops per nonzero of L, else simplicial LDL^T
   kEigenSimplicial,    // Eigen's own LDL^T with AMD ordering, for cross-checks
 };
+
+// Supernodal (dense blocks through the BLAS) pays only on factors this dense. Measured on the
+// benchmark grids (docs/performance.md): at 115 flops per entry (a 10^5-pipe grid) simplicial
+// LDL^T factorised 1.3x faster than supernodal even with OpenBLAS; at 371 (10^6 pipes)
+// supernodal was 3.1x faster with OpenBLAS and no slower with the reference BLAS. Tree-like
+// networks sit near 3.
+inline constexpr double kSupernodalFlopsPerEntry = 200.0;
 
 // Which ordering the backend applies in analyze(): AMD (Amestoy, Davis & Duff 1996), or none
 // for a matrix whose unknowns are already numbered in a fill-reducing order.
 enum class Ordering { kAmd, kNatural };
 
 std::unique_ptr<SparseCholesky> make_sparse_cholesky(
-    CholeskyBackend backend = CholeskyBackend::kCholmodSimplicial, Ordering ordering = Ordering::kAmd);
+    CholeskyBackend backend = CholeskyBackend::kCholmodAuto, Ordering ordering = Ordering::kAmd);
 
 }  // namespace gradeline
