@@ -105,8 +105,10 @@ void GradientSolver::evaluate(const State& s) {
 bool GradientSolver::newton_step(State* next) {
   auto t = Clock::now();
   const std::size_t links = net_.pipes.size();
+  const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
   for (int pass = 0; pass < 4; ++pass) {
-    for (std::size_t k = 0; k < links; ++k) {
+#pragma omp parallel for schedule(static) if (link_count >= kParallelLinks)
+    for (std::ptrdiff_t k = 0; k < link_count; ++k) {
       conductance_[k] = active_[k] && !valves_.active(k) ? 1.0 / dh_dq_[k] : 0.0;
     }
     assemble_matrix(conductance_, unsupplied_, &cache_.plan);
@@ -150,7 +152,8 @@ bool GradientSolver::newton_step(State* next) {
     const int u = cache_.plan.unknown_of_node[n];
     if (u >= 0) next->head[n] = supplied_[n] ? x_[u] : 0.0;
   }
-  for (std::size_t k = 0; k < links; ++k) {
+#pragma omp parallel for schedule(static) if (link_count >= kParallelLinks)
+  for (std::ptrdiff_t k = 0; k < link_count; ++k) {
     if (!active_[k]) {
       next->flow[k] = 0.0;
       continue;
