@@ -36,3 +36,25 @@ TEST_CASE("nested objects, arrays, escapes and non-finite numbers read back") {
   CHECK(parsed["list"].size() == 3);
   CHECK(parsed["list"][0] == 1.5);
 }
+
+TEST_CASE("containers at the compact depth go on one line, and a sink receives all the text") {
+  std::string buffer, received;
+  JsonStream j(&buffer);
+  j.set_compact_depth(3);
+  j.set_sink([&](std::string_view text) { received += text; });
+  j.begin_object();
+  j.key("nodes");
+  j.begin_array();
+  for (int i = 0; i < 2; ++i) {
+    j.begin_object();
+    j.field("id", std::to_string(i));
+    j.field("head_m", 1.5);
+    j.end_object();
+  }
+  j.end_array();
+  j.end_object();
+  j.flush();
+  CHECK(buffer.empty());
+  CHECK(received ==
+        "{\n \"nodes\": [\n  {\"id\":\"0\",\"head_m\":1.5},\n  {\"id\":\"1\",\"head_m\":1.5}\n ]\n}\n");
+}

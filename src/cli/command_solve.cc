@@ -36,9 +36,8 @@ std::string timing_text(const SolveSummary& s, double parse_s) {
   return t.str();
 }
 
-std::string cases_json(const Network& net, const std::vector<CaseOutcome>& outcomes) {
-  std::string text;
-  JsonStream j(&text);
+void cases_json(const Network& net, const std::vector<CaseOutcome>& outcomes, JsonStream* out) {
+  JsonStream& j = *out;
   std::vector<Violation> all;
   for (const CaseOutcome& o : outcomes) all.insert(all.end(), o.violations.begin(), o.violations.end());
   if (outcomes.size() == 1) {
@@ -47,7 +46,7 @@ std::string cases_json(const Network& net, const std::vector<CaseOutcome>& outco
       more->field("case", outcomes[0].demand_case.name);
       write_violations_json(net, all, more);
     });
-    return text;
+    return;
   }
   j.begin_object();
   j.key("cases");
@@ -59,7 +58,6 @@ std::string cases_json(const Network& net, const std::vector<CaseOutcome>& outco
   j.end_object();
   write_violations_json(net, all, &j);
   j.end_object();
-  return text;
 }
 
 int run_solve(const SolveArgs& a, Streams io) {
@@ -106,7 +104,8 @@ int run_solve(const SolveArgs& a, Streams io) {
     io.out << solve_report_text(net, o.result, a.file, report);
     violated = violated || !o.violations.empty();
   }
-  if (!a.json_path.empty() && !write_output(a.json_path, cases_json(net, outcomes), inputs, io)) {
+  if (!a.json_path.empty() && !write_json_output(a.json_path, inputs, io,
+                                                     [&](JsonStream* j) { cases_json(net, outcomes, j); })) {
     return kExitInput;
   }
   return violated ? kExitCriteria : kExitOk;

@@ -54,6 +54,34 @@ bool write_output(const std::string& path, const std::string& text,
   return true;
 }
 
+bool write_json_output(const std::string& path, const std::vector<std::string>& inputs, Streams io,
+                       const std::function<void(JsonStream*)>& produce) {
+  for (const std::string& input : inputs) {
+    if (same_file(path, input)) {
+      io.err << "gradeline: error: refusing to write over the input file '" << input << "'\n";
+      return false;
+    }
+  }
+  std::string why;
+  AtomicFile file;
+  if (!file.open(path, &why)) {
+    io.err << "gradeline: error: " << why << "\n";
+    return false;
+  }
+  bool ok = true;
+  std::string buffer;
+  JsonStream j(&buffer);
+  j.set_compact_depth(3);  // top object, its arrays, then one line per element
+  j.set_sink([&](std::string_view text) { ok = ok && file.write(text, &why); });
+  produce(&j);
+  j.flush();
+  if (!ok || !file.commit(&why)) {
+    io.err << "gradeline: error: " << why << "\n";
+    return false;
+  }
+  return true;
+}
+
 void SolveFlags::add_to(CLI::App* app) {
   app->add_option("--case", case_name, "demand case to solve, or 'all' (default: the first)");
   app->add_option("--min-pressure", min_pressure, "minimum pressure for every case, e.g. 280kPa");

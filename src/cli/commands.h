@@ -7,6 +7,7 @@
 #include <string>
 #include <vector>
 
+#include "io/json_stream.h"
 #include "analysis/case_run.h"
 #include "io/parser.h"
 
@@ -48,6 +49,10 @@ bool apply_changes(const std::vector<std::string>& change_files, Streams io, Net
 // Writes `text` to `path` atomically unless `path` names one of `inputs`. Prints the error.
 bool write_output(const std::string& path, const std::string& text,
                   const std::vector<std::string>& inputs, Streams io);
+// The same for JSON written by `produce` straight to the temporary file, a megabyte at a time,
+// with each element of the top-level arrays on one line.
+bool write_json_output(const std::string& path, const std::vector<std::string>& inputs, Streams io,
+                       const std::function<void(JsonStream*)>& produce);
 
 // Options shared by the commands that solve: criteria on the command line, iteration limit,
 // case selection.

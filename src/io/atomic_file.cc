@@ -19,42 +19,73 @@ bool same_file(const std::string& a, const std::string& b) {
   return fs::weakly_canonical(a, ec) == fs::weakly_canonical(b, ec);
 }
 
-bool write_file_atomically(const std::string& path, const std::string& text, std::string* error) {
+AtomicFile::~AtomicFile() { abandon(); }
+
+void AtomicFile::abandon() {
+  if (fd_ >= 0) ::close(fd_);
+  if (!temp_.empty()) ::unlink(temp_.c_str());
+  fd_ = -1;
+  temp_.clear();
+}
+
+bool AtomicFile::open(const std::string& path, std::string* error) {
+  abandon();
+  path_ = path;
   fs::path target(path);
   fs::path dir = target.parent_path();
   if (dir.empty()) dir = ".";
   std::string temp = (dir / ("." + target.filename().string() + ".XXXXXX")).string();
-  int fd = mkstemp(temp.data());
-  if (fd < 0) {
+  fd_ = mkstemp(temp.data());
+  if (fd_ < 0) {
     *error = std::string("cannot create a file in '") + dir.string() + "': " + std::strerror(errno);
     return false;
   }
+  temp_ = temp;
+  return true;
+}
+
+bool AtomicFile::write(std::string_view text, std::string* error) {
   const char* data = text.data();
   std::size_t left = text.size();
   while (left > 0) {
-    ssize_t n = ::write(fd, data, left);
+    ssize_t n = ::write(fd_, data, left);
     if (n < 0) {
       if (errno == EINTR) continue;
-      *error = std::string("cannot write '") + path + "': " + std::strerror(errno);
-      ::close(fd);
-      ::unlink(temp.c_str());
+      *error = std::string("cannot write '") + path_ + "': " + std::strerror(errno);
+      abandon();
       return false;
     }
     data += n;
     left -= static_cast<std::size_t>(n);
   }
-  if (::fsync(fd) != 0 || ::close(fd) != 0) {
-    *error = std::string("cannot write '") + path + "': " + std::strerror(errno);
-    ::unlink(temp.c_str());
-    return false;
-  }
-  ::chmod(temp.c_str(), 0644);
-  if (std::rename(temp.c_str(), path.c_str()) != 0) {
-    *error = std::string("cannot write '") + path + "': " + std::strerror(errno);
-    ::unlink(temp.c_str());
-    return false;
-  }
   return true;
+}
+
+bool AtomicFile::commit(std::string* error) {
+  if (fd_ < 0) {
+    *error = std::string("cannot write '") + path_ + "'";
+    return false;
+  }
+  const int fd = fd_;
+  fd_ = -1;
+  if (::fsync(fd) != 0 || ::close(fd) != 0) {
+    *error = std::string("cannot write '") + path_ + "': " + std::strerror(errno);
+    abandon();
+    return false;
+  }
+  ::chmod(temp_.c_str(), 0644);
+  if (std::rename(temp_.c_str(), path_.c_str()) != 0) {
+    *error = std::string("cannot write '") + path_ + "': " + std::strerror(errno);
+    abandon();
+    return false;
+  }
+  temp_.clear();
+  return true;
+}
+
+bool write_file_atomically(const std::string& path, const std::string& text, std::string* error) {
+  AtomicFile file;
+  return file.open(path, error) && file.write(text, error) && file.commit(error);
 }
 
 }  // namespace gradeline

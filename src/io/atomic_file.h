@@ -4,8 +4,29 @@
 #pragma once
 
 #include <string>
+#include <string_view>
 
 namespace gradeline {
+
+// A file written in pieces and then put in place atomically; abandoned (the temporary removed)
+// unless commit() succeeds.
+class AtomicFile {
+ public:
+  AtomicFile() = default;
+  AtomicFile(const AtomicFile&) = delete;
+  AtomicFile& operator=(const AtomicFile&) = delete;
+  ~AtomicFile();
+
+  bool open(const std::string& path, std::string* error);
+  bool write(std::string_view text, std::string* error);
+  // Flushes to disk and renames the temporary over the target.
+  bool commit(std::string* error);
+
+ private:
+  void abandon();
+  std::string path_, temp_;
+  int fd_ = -1;
+};
 
 // False with a reason when the file cannot be written. The caller refuses output paths that
 // name an input (see same_file).

@@ -6,13 +6,23 @@
 
 namespace gradeline {
 
+constexpr std::size_t kSinkChunk = 1 << 20;
+
+void JsonStream::flush() {
+  if (sink_ && !out_->empty()) {
+    sink_(*out_);
+    out_->clear();
+  }
+}
+
 void JsonStream::separate() {
   if (after_key_) {
     after_key_ = false;
     return;
   }
   if (!first_) *out_ += ',';
-  if (depth_ > 0) {
+  if (depth_ > 0 && depth_ < compact_depth_) {  // the current container is not compact
+    if (sink_ && out_->size() >= kSinkChunk) flush();
     *out_ += '\n';
     out_->append(static_cast<std::size_t>(depth_), ' ');
   }
@@ -28,7 +38,7 @@ void JsonStream::open(char c) {
 
 void JsonStream::close(char c) {
   --depth_;
-  if (!first_) {
+  if (!first_ && depth_ + 1 < compact_depth_) {  // the container closed was not compact
     *out_ += '\n';
     out_->append(static_cast<std::size_t>(depth_), ' ');
   }
@@ -40,7 +50,7 @@ void JsonStream::close(char c) {
 void JsonStream::key(std::string_view k) {
   separate();
   string(k);
-  *out_ += ": ";
+  *out_ += compact() ? ":" : ": ";
   after_key_ = true;
 }
 

@@ -1,8 +1,11 @@
-// A small streaming JSON writer: appends to a string with no document tree, so writing the
-// result of a million-pipe network costs one pass and no more memory than the text itself.
+// A small streaming JSON writer: appends to a string with no document tree. With a sink, the
+// text is handed on (to a file) whenever a megabyte has gathered, so writing the result of a
+// million-pipe network costs one pass and a megabyte of memory. Objects and arrays opened
+// deeper than the compact depth go on one line with no spaces (one element per line).
 // Numbers use the shortest form that reads back exactly; non-finite numbers become null.
 #pragma once
 
+#include <functional>
 #include <string>
 #include <string_view>
 
@@ -11,6 +14,13 @@ namespace gradeline {
 class JsonStream {
  public:
   explicit JsonStream(std::string* out) : out_(out) {}
+
+  // `sink` receives the gathered text, which is then cleared.
+  void set_sink(std::function<void(std::string_view)> sink) { sink_ = std::move(sink); }
+  // Containers opened at this depth or deeper are written on one line (the top object is 1).
+  void set_compact_depth(int depth) { compact_depth_ = depth; }
+  // Hands the rest of the text to the sink.
+  void flush();
 
   void begin_object() { open('{'); }
   void end_object() { close('}'); }
@@ -39,10 +49,14 @@ class JsonStream {
   void close(char c);
   void string(std::string_view s);
 
+  bool compact() const { return depth_ >= compact_depth_; }
+
   std::string* out_;
+  std::function<void(std::string_view)> sink_;
   bool first_ = true;      // no element yet at this level
   bool after_key_ = false;
   int depth_ = 0;
+  int compact_depth_ = 1 << 20;
 };
 
 }  // namespace gradeline
