@@ -75,21 +75,30 @@ TEST_CASE("catalogue errors, exactly") {
         "and mobilisation)\n");
 }
 
+namespace {
+
+// Sizes every pipe of a benchmark network as new from its catalogue, and checks the design is
+// feasible, costs at most `published_cost`, and keeps every junction at `min_head_m` or more
+// when the written change set is applied and solved again independently.
+void check_benchmark(const Network& net, const std::string& catalogue, double published_cost,
+                     double min_head_m, const char* name) {
+  CatalogueResult cat = parse_catalogue_file(testing::source_path(catalogue), net.headloss.law);
+  REQUIRE(cat.ok());
+  SizingResult r = size_pipes(net, cat.catalogue, all_pipes(net, true));
+  MESSAGE(name << ": cost " << r.cost << ", " << r.solves << " solves, " << r.seconds << " s");
+  CHECK(r.feasible);
+  CHECK(r.cost <= published_cost);
+  CHECK(lowest_pressure_after(net, sizing_change_set(net, cat.catalogue, r, name)) >= min_head_m);
+}
+
+}  // namespace
+
 TEST_CASE("two-loop benchmark: size reaches the published best-known cost of $419,000") {
   // Alperovits & Shamir (1977); candidate sizes and costs as republished by Bragalli et al.
   // (2012); Hazen-Williams 10.5088 / 1.852 / 4.871; minimum pressure head 30 m. The best-known
   // cost is from memory of the literature, confirmed optimal by exhaustive enumeration there.
-  Network net = testing::load("tests/networks/two_loop.gln");
-  CatalogueResult cat = parse_catalogue_file(testing::source_path("tests/networks/two_loop.cat"),
-                                             net.headloss.law);
-  REQUIRE(cat.ok());
-  SizingResult r = size_pipes(net, cat.catalogue, all_pipes(net, true));
-  MESSAGE("two-loop: cost " << r.cost << ", " << r.solves << " solves, " << r.seconds << " s");
-  CHECK(r.feasible);
-  CHECK(r.cost <= 419000.0);
-  // Independently: apply the written change set and solve again.
-  std::string changes = sizing_change_set(net, cat.catalogue, r, "two-loop");
-  CHECK(lowest_pressure_after(net, changes) >= 30.0);
+  check_benchmark(testing::load("tests/networks/two_loop.gln"), "tests/networks/two_loop.cat",
+                  419000.0, 30.0, "two-loop");
 }
 
 TEST_CASE("two-loop benchmark with constants 10.9031 / 1.85 / 4.87: the best-known $420,000") {
@@ -102,15 +111,8 @@ TEST_CASE("two-loop benchmark with constants 10.9031 / 1.85 / 4.87: the best-kno
   REQUIRE(text.find(usual) != std::string::npos);
   text.replace(text.find(usual), usual.size(),
                "coefficient=10.9031 flow_exponent=1.85 diameter_exponent=4.87");
-  Network net = testing::parse_or_fail(text);
-  CatalogueResult cat = parse_catalogue_file(testing::source_path("tests/networks/two_loop.cat"),
-                                             net.headloss.law);
-  REQUIRE(cat.ok());
-  SizingResult r = size_pipes(net, cat.catalogue, all_pipes(net, true));
-  MESSAGE("two-loop (10.9031): cost " << r.cost << ", " << r.solves << " solves, " << r.seconds << " s");
-  CHECK(r.feasible);
-  CHECK(r.cost <= 420000.0);
-  CHECK(lowest_pressure_after(net, sizing_change_set(net, cat.catalogue, r, "two-loop")) >= 30.0);
+  check_benchmark(testing::parse_or_fail(text), "tests/networks/two_loop.cat", 420000.0, 30.0,
+                  "two-loop (10.9031)");
 }
 
 TEST_CASE("Hanoi benchmark: size is at or below the published best-known cost of $6.056 million") {
@@ -118,15 +120,8 @@ TEST_CASE("Hanoi benchmark: size is at or below the published best-known cost of
   // 30 m, Hazen-Williams 10.5088 / 1.852 / 4.871. Published least costs with these constants:
   // $6.073 million (Savic & Walters 1997) and $6.056 million (Cunha & Sousa 1999, J. Water
   // Resour. Plann. Manage. 125(4)), both from memory of the literature.
-  Network net = testing::load("tests/networks/hanoi.gln");
-  CatalogueResult cat = parse_catalogue_file(testing::source_path("tests/networks/hanoi.cat"),
-                                             net.headloss.law);
-  REQUIRE(cat.ok());
-  SizingResult r = size_pipes(net, cat.catalogue, all_pipes(net, true));
-  MESSAGE("Hanoi: cost " << r.cost << ", " << r.solves << " solves, " << r.seconds << " s");
-  CHECK(r.feasible);
-  CHECK(r.cost <= 6056000.0);
-  CHECK(lowest_pressure_after(net, sizing_change_set(net, cat.catalogue, r, "Hanoi")) >= 30.0);
+  check_benchmark(testing::load("tests/networks/hanoi.gln"), "tests/networks/hanoi.cat",
+                  6056000.0, 30.0, "Hanoi");
 }
 
 TEST_CASE("a small problem is solved exactly: the optimum of an exhaustive enumeration") {
