@@ -77,9 +77,8 @@ void GradientSolver::update_active_set() {
   }
   supplied_ = find_supplied(net_, cache_.topology, link_open_);
   for (std::size_t n = 0; n < net_.nodes.size(); ++n) unsupplied_[n] = !supplied_[n];
-  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
-    active_[k] = link_open_[k] && supplied_[net_.pipes[k].from];
-  }
+  const std::vector<std::uint32_t>& from = cache_.topology.from;
+  for (std::size_t k = 0; k < net_.pipes.size(); ++k) active_[k] = link_open_[k] && supplied_[from[k]];
 }
 
 void GradientSolver::evaluate(const State& s) {
