@@ -56,6 +56,9 @@ struct SolveTiming {
   double triangular_solve_s = 0.0;
   double assembly_s = 0.0;        // friction evaluation and matrix assembly, summed
   double total_s = 0.0;
+  // Link-law evaluations: done, and reused because the link's flow had not changed.
+  long long link_evaluations = 0;
+  long long reused_link_evaluations = 0;
 };
 
 struct SolveSummary {

@@ -32,7 +32,9 @@ std::string timing_text(const SolveSummary& s, double parse_s) {
     << s.timing.topology_s << " s, symbolic " << s.timing.symbolic_s << " s, numeric factor "
     << s.timing.numeric_factor_s << " s, solve " << s.timing.triangular_solve_s
     << " s, assembly+friction " << s.timing.assembly_s << " s, solver total " << s.timing.total_s
-    << " s (" << s.iterations << " iterations)\n";
+    << " s (" << s.iterations << " iterations)\n"
+    << "timing      link laws evaluated " << s.timing.link_evaluations << ", reused "
+    << s.timing.reused_link_evaluations << " (flow unchanged since the last evaluation)\n";
   return t.str();
 }
 

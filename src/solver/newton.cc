@@ -24,6 +24,10 @@ double seconds_since(Clock::time_point t) {
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
 constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
+// A flow within this relative difference of the one a link was evaluated at reuses that
+// evaluation: h and dh/dQ then differ from exact by about 1e-13 relative, far below the
+// convergence tolerances.
+constexpr double kReuseRelativeFlow = 1e-13;
 constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
@@ -65,6 +69,7 @@ class GradientSolver {
   std::vector<int> direction_;  // +1, -1: one-way link; 0: two-way
   std::vector<double> demand_, headloss_, dh_dq_, conductance_;
   std::vector<double> colebrook_x_;  // per pipe: last Colebrook root, warm start of the next
+  std::vector<double> evaluated_flow_;  // per link: the flow headloss_ and dh_dq_ were evaluated at
   Eigen::VectorXd rhs_, x_;
   SolveTiming timing_;
   int iterations_ = 0;
@@ -86,17 +91,32 @@ void GradientSolver::evaluate(const State& s) {
   const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(laws_.size());
   // Each link's law is independent of the others, so large networks share the links among the
   // cores; the result does not depend on how they are shared.
-#pragma omp parallel for schedule(static) if (links >= kParallelLinks)
+  // Partial update: a link whose flow is, to round-off, the flow its law was last evaluated at
+  // keeps that evaluation. After the first step this holds for every link outside the loops
+  // (continuity fixes those flows), which on tree-like networks is most of them. Valves are
+  // always evaluated, since their losses are overridden by their mode.
+  long long reused = 0, evaluated = 0;
+#pragma omp parallel for schedule(static) if (links >= kParallelLinks) reduction(+ : reused, evaluated)
   for (std::ptrdiff_t k = 0; k < links; ++k) {
     if (!active_[k]) {
       headloss_[k] = 0.0;
       dh_dq_[k] = 0.0;
+      evaluated_flow_[k] = std::numeric_limits<double>::quiet_NaN();
       continue;
     }
-    LinkEval e = evaluate_pipe(laws_[k], s.flow[k], &colebrook_x_[k]);
+    const double q = s.flow[k];
+    if (!laws_[k].valve && std::abs(q - evaluated_flow_[k]) <= kReuseRelativeFlow * std::abs(q)) {
+      ++reused;
+      continue;
+    }
+    LinkEval e = evaluate_pipe(laws_[k], q, &colebrook_x_[k]);
     headloss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
+    evaluated_flow_[k] = q;
+    ++evaluated;
   }
+  timing_.reused_link_evaluations += reused;
+  timing_.link_evaluations += evaluated;
   if (valves_.any()) valves_.override_losses(s.head, &headloss_);
   timing_.assembly_s += seconds_since(t);
 }
@@ -298,6 +318,7 @@ SolveResult GradientSolver::run() {
   headloss_.assign(links, 0.0);
   dh_dq_.assign(links, 0.0);
   colebrook_x_.assign(links, 0.0);
+  evaluated_flow_.assign(links, std::numeric_limits<double>::quiet_NaN());
   conductance_.assign(links, 0.0);
   rhs_.resize(cache_.plan.unknowns);
   if (!analysed) return finish(s, Termination::kLinearSolverFailed, "symbolic analysis failed");
