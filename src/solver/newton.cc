@@ -49,7 +49,7 @@ class GradientSolver {
   void evaluate(const State& s);
   ResidualNorms residuals(const State& s) {
     return compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_, active_,
-                             nullptr, nullptr);
+                             &balance_, nullptr);
   }
   bool newton_step(State* next);
   void set_directions();
@@ -70,6 +70,7 @@ class GradientSolver {
   std::vector<double> demand_, headloss_, dh_dq_, conductance_;
   std::vector<double> colebrook_x_;  // per pipe: last Colebrook root, warm start of the next
   std::vector<double> evaluated_flow_;  // per link: the flow headloss_ and dh_dq_ were evaluated at
+  std::vector<double> balance_;         // per node: continuity residuals (workspace)
   Eigen::VectorXd rhs_, x_;
   SolveTiming timing_;
   int iterations_ = 0;
