@@ -87,19 +87,22 @@ void JsonStream::null() {
 
 void JsonStream::string(std::string_view s) {
   *out_ += '"';
-  for (char c : s) {
-    unsigned char u = static_cast<unsigned char>(c);
-    if (c == '"' || c == '\\') {
+  std::size_t run = 0;  // start of the characters that need no escape, appended in one go
+  for (std::size_t i = 0; i < s.size(); ++i) {
+    const unsigned char u = static_cast<unsigned char>(s[i]);
+    if (u >= 0x20 && u != '"' && u != '\\') continue;
+    out_->append(s.data() + run, i - run);
+    run = i + 1;
+    if (u == '"' || u == '\\') {
       *out_ += '\\';
-      *out_ += c;
-    } else if (u < 0x20) {
+      *out_ += static_cast<char>(u);
+    } else {
       char escape[8];
       std::snprintf(escape, sizeof escape, "\\u%04x", u);
       *out_ += escape;
-    } else {
-      *out_ += c;
     }
   }
+  out_->append(s.data() + run, s.size() - run);
   *out_ += '"';
 }
 
