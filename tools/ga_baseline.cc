@@ -30,14 +30,6 @@ namespace {
 
 using Genome = std::vector<int>;
 
-struct GenomeHash {
-  std::size_t operator()(const Genome& g) const {
-    std::size_t h = 1469598103934665603ull;
-    for (int v : g) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
-    return h;
-  }
-};
-
 struct Scored {
   double fitness = 0.0;
   double cost = 0.0;
@@ -93,7 +85,7 @@ class Problem {
   std::vector<DemandCase> cases_;
   double penalty_per_m_;
   SolverSession session_;
-  std::unordered_map<Genome, Scored, GenomeHash> memo_;
+  std::unordered_map<Genome, Scored, DesignHash> memo_;
   long long solves_ = 0;
 };
 

@@ -23,14 +23,6 @@ struct Details {
   std::vector<Violation> violations;
 };
 
-struct DesignHash {
-  std::size_t operator()(const std::vector<int>& d) const {
-    std::size_t h = 1469598103934665603ull;
-    for (int v : d) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
-    return h;
-  }
-};
-
 void set_size(Pipe* p, const CatalogueItem& item) {
   p->diameter_m = item.diameter_m;
   if (item.roughness_m) p->roughness_m = item.roughness_m;

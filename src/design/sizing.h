@@ -41,6 +41,15 @@ struct PipeChange {
   double margin_if_smaller_m = 0.0;       // NaN when that design does not solve
 };
 
+// Hash of a design (one option index per candidate pipe), for memo tables of trial designs.
+struct DesignHash {
+  std::size_t operator()(const std::vector<int>& design) const {
+    std::size_t h = 1469598103934665603ull;  // FNV-1a
+    for (int v : design) h = (h ^ static_cast<std::size_t>(v)) * 1099511628211ull;
+    return h;
+  }
+};
+
 struct SizingResult {
   bool feasible = false;
   double cost = 0.0;

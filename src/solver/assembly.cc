@@ -64,7 +64,6 @@ AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
     for (int& u : plan.unknown_of_node) {
       if (u >= 0) u = position[u];
     }
-    plan.fill_reducing = true;
   }
   // The upper triangle in compressed columns, built directly: column j holds the rows i < j of
   // the links between junctions i and j (parallel links share one entry), then the diagonal.

@@ -23,7 +23,6 @@ inline constexpr int kNoSlot = -1;
 struct AssemblyPlan {
   int unknowns = 0;                 // number of junctions
   std::vector<int> unknown_of_node; // -1 for fixed-head nodes
-  bool fill_reducing = false;       // numbered by a fill-reducing order: factorise as it is
   std::vector<int> diagonal_slot;   // per unknown
   std::vector<int> from_slot;       // per link: diagonal slot of `from`, or kNoSlot if fixed
   std::vector<int> to_slot;
