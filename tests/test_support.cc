@@ -125,7 +125,7 @@ double max_continuity_m3s(const Network& net, const SolveResult& result) {
   double worst = 0.0;
   for (std::size_t i = 0; i < net.nodes.size(); ++i) {
     if (net.nodes[i].is_fixed_head() || !result.nodes[i].supplied) continue;
-    worst = std::max(worst, std::abs(balance[i] - net.nodes[i].demand_m3s));
+    worst = std::max(worst, std::abs(balance[i] - result.nodes[i].demand_m3s));
   }
   return worst;
 }

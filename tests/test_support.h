@@ -25,7 +25,8 @@ std::vector<double> base_demand(const Network& network);
 // Largest |sum of signed head losses| around the fundamental cycles of the open links (m).
 double max_loop_headloss_m(const Network& network, const SolveResult& result);
 
-// Largest |inflow - outflow - demand| at a supplied junction, from the reported flows (m^3/s).
+// Largest |inflow - outflow - demand| at a supplied junction, from the reported flows and the
+// demands of that solve (m^3/s).
 double max_continuity_m3s(const Network& network, const SolveResult& result);
 
 struct CommandResult {

@@ -19,6 +19,10 @@ struct SolveOptions {
   int max_step_halvings = 8;
   // Hazen-Williams regularisation: below this flow the |Q|^n law is smoothed (see link_law.h).
   double hw_regularisation_flow_m3s = 1e-8;
+  // Eliminate dead-end branches and series chains of plain pipes before the Newton iterations
+  // and recover them exactly afterwards (see docs/solver.md). Applied when it removes at least
+  // 1% of the nodes.
+  bool topological_reduction = true;
 
   // Returns an empty string when the options are usable, or the reason they are not.
   std::string validate() const;

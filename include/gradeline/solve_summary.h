@@ -61,6 +61,16 @@ struct SolveTiming {
   long long reused_link_evaluations = 0;
 };
 
+// What the topological reduction left for the Newton iterations.
+struct ReductionSummary {
+  bool applied = false;
+  std::size_t core_junctions = 0;  // unknowns of the Newton system
+  std::size_t core_links = 0;      // links of the Newton system; a series chain counts once
+  std::size_t tree_links = 0;      // links of dead-end branches, fixed by continuity
+  std::size_t chain_links = 0;     // pipes inside series chains
+  std::size_t chains = 0;
+};
+
 struct SolveSummary {
   Termination termination = Termination::kMaxIterations;
   int iterations = 0;
@@ -71,6 +81,7 @@ struct SolveSummary {
   std::size_t unsupplied_nodes = 0;
   std::string message;  // human detail for a failure
   SolveTiming timing;
+  ReductionSummary reduction;
 
   bool converged() const { return termination == Termination::kConverged; }
 };

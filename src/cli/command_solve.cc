@@ -35,6 +35,12 @@ std::string timing_text(const SolveSummary& s, double parse_s) {
     << " s (" << s.iterations << " iterations)\n"
     << "timing      link laws evaluated " << s.timing.link_evaluations << ", reused "
     << s.timing.reused_link_evaluations << " (flow unchanged since the last evaluation)\n";
+  if (s.reduction.applied) {
+    t << "timing      reduced to " << s.reduction.core_junctions << " junctions and "
+      << s.reduction.core_links << " links: " << s.reduction.tree_links
+      << " dead-end links by continuity, " << s.reduction.chain_links << " pipes in "
+      << s.reduction.chains << " series chains\n";
+  }
   return t.str();
 }
 

@@ -89,6 +89,8 @@ void SolveFlags::add_to(CLI::App* app) {
   app->add_option("--max-velocity", max_velocity, "maximum pipe velocity, e.g. 2.5m/s");
   app->add_option("--max-iterations", max_iterations, "Newton iteration limit")
       ->check(CLI::Range(1, 10000));
+  app->add_flag("--no-reduction", no_reduction,
+                "iterate on every node and link (no elimination of dead ends and series chains)");
 }
 
 bool SolveFlags::criteria(const Network& net, Streams io, CriteriaOverride* out) const {
@@ -119,6 +121,7 @@ bool SolveFlags::criteria(const Network& net, Streams io, CriteriaOverride* out)
 SolveOptions SolveFlags::options() const {
   SolveOptions o;
   o.max_iterations = max_iterations;
+  o.topological_reduction = !no_reduction;
   return o;
 }
 

@@ -60,6 +60,7 @@ struct SolveFlags {
   std::string case_name;
   std::string min_pressure, max_pressure, max_velocity;
   int max_iterations = SolveOptions{}.max_iterations;
+  bool no_reduction = false;
 
   void add_to(CLI::App* app);
   // Converts the criteria for `network` (its units and fluid). Prints the error.

@@ -5,10 +5,12 @@
 #include <limits>
 #include <sstream>
 
+#include "hydraulics/chain_law.h"
 #include "hydraulics/link_law.h"
 #include "model/topology.h"
 #include "solver/assembly.h"
 #include "solver/control_valves.h"
+#include "solver/reduced_solve.h"
 #include "solver/residuals.h"
 #include "solver/solver_cache.h"
 #include "solver/sparse_cholesky.h"
@@ -39,13 +41,19 @@ class GradientSolver {
  public:
   GradientSolver(const Network& net, const SolveOptions& options,
                  const std::vector<double>& demand_m3s, SolverCache* cache,
-                 const std::vector<double>* initial_flows)
+                 const std::vector<double>* initial_flows, ChainLaws* chains)
       : net_(net), options_(options), given_demand_(demand_m3s), cache_(*cache),
-        initial_flows_(initial_flows), valves_(net) {}
+        initial_flows_(initial_flows), valves_(net), chains_(chains),
+        first_chain_(net.pipes.size() - (chains ? chains->size() : 0)) {}
   SolveResult run();
 
  private:
   void update_active_set();
+  // h and dh/dQ of link k: its own law, or the chain's for a link that stands for a chain.
+  LinkEval evaluate_link(std::size_t k, double flow_m3s) {
+    return k >= first_chain_ ? chains_->evaluate(k - first_chain_, flow_m3s)
+                             : evaluate_pipe(laws_[k], flow_m3s, &colebrook_x_[k]);
+  }
   void evaluate(const State& s);
   ResidualNorms residuals(const State& s) {
     return compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_, active_,
@@ -64,6 +72,8 @@ class GradientSolver {
   SolverCache& cache_;
   const std::vector<double>* initial_flows_;
   ControlValves valves_;
+  ChainLaws* chains_;         // null, or the laws of the last chains_->size() links
+  std::size_t first_chain_;
   std::vector<char> file_open_, cv_closed_, link_open_, supplied_, unsupplied_, active_;
   std::vector<int> toggles_;
   std::vector<int> direction_;  // +1, -1: one-way link; 0: two-way
@@ -110,7 +120,7 @@ void GradientSolver::evaluate(const State& s) {
       ++reused;
       continue;
     }
-    LinkEval e = evaluate_pipe(laws_[k], q, &colebrook_x_[k]);
+    LinkEval e = evaluate_link(static_cast<std::size_t>(k), q);
     headloss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
     evaluated_flow_[k] = q;
@@ -309,7 +319,9 @@ SolveResult GradientSolver::run() {
   const bool warm = initial_flows_ != nullptr && initial_flows_->size() == links;
   for (std::size_t k = 0; k < links; ++k) {
     if (!active_[k]) continue;
-    s.flow[k] = warm ? (*initial_flows_)[k] : kInitialVelocity_ms * laws_[k].area_m2;
+    s.flow[k] = warm ? (*initial_flows_)[k]
+                : k >= first_chain_ ? chains_->cold_start_flow(k - first_chain_, kInitialVelocity_ms)
+                                    : kInitialVelocity_ms * laws_[k].area_m2;
     if (!warm && laws_[k].pump) {  // start where the pump gives three quarters of its shut-off head
       s.flow[k] = std::pow(0.25 * laws_[k].pump_gain_m / laws_[k].pump_coefficient,
                            1.0 / laws_[k].pump_exponent);
@@ -435,7 +447,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     ls.valve_mode = valves_.mode(k);
     ls.energy_residual_m = link_res[k];
     if (!active_[k]) continue;
-    LinkEval e = evaluate_pipe(laws_[k], s.flow[k], &colebrook_x_[k]);
+    LinkEval e = evaluate_link(k, s.flow[k]);
     ls.flow_m3s = s.flow[k];
     ls.velocity_ms = laws_[k].pump ? 0.0 : s.flow[k] / laws_[k].area_m2;
     ls.headloss_m = valves_.active(k) ? s.head[net_.pipes[k].from] - s.head[net_.pipes[k].to]
@@ -475,6 +487,12 @@ std::string SolveOptions::validate() const {
   return "";
 }
 
+SolveResult run_gradient_method(const Network& network, const SolveOptions& options,
+                                const std::vector<double>& demand_m3s, SolverCache* cache,
+                                const std::vector<double>* initial_flows, ChainLaws* chains) {
+  return GradientSolver(network, options, demand_m3s, cache, initial_flows, chains).run();
+}
+
 SolveResult solve_with_cache(const Network& network, const SolveOptions& options,
                              const std::vector<double>& demand_m3s, SolverCache* cache,
                              const std::vector<double>* initial_flows) {
@@ -488,7 +506,12 @@ SolveResult solve_with_cache(const Network& network, const SolveOptions& options
     r.summary.message = invalid;
     return r;
   }
-  return GradientSolver(network, options, demand_m3s, cache, initial_flows).run();
+  if (options.topological_reduction) {
+    std::optional<SolveResult> reduced =
+        solve_reduced(network, options, demand_m3s, cache, initial_flows);
+    if (reduced) return std::move(*reduced);
+  }
+  return run_gradient_method(network, options, demand_m3s, cache, initial_flows, nullptr);
 }
 
 SolveResult solve(const Network& network, const SolveOptions& options,

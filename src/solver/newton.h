@@ -21,4 +21,13 @@ namespace gradeline {
 
 inline constexpr double kInitialVelocity_ms = 0.3;  // cold-start flow in every open link
 
+struct ChainLaws;
+
+// The gradient method itself, on the network as given. When `chains` is not null, the last
+// chains->size() links of `network` stand for series chains (solver/reduction.h) and obey the
+// chain laws instead of their own.
+SolveResult run_gradient_method(const Network& network, const SolveOptions& options,
+                                const std::vector<double>& demand_m3s, SolverCache* cache,
+                                const std::vector<double>* initial_flows, ChainLaws* chains);
+
 }  // namespace gradeline

@@ -13,12 +13,16 @@
 
 namespace gradeline {
 
+struct ReductionCache;  // solver/reduced_solve.h
+
 struct SolverCache {
   Topology topology;
   AssemblyPlan plan;
   std::unique_ptr<SparseCholesky> cholesky;
   bool analysed = false;
   int analyses = 0;
+  // The topological reduction of the last network, and the cache of its core.
+  std::shared_ptr<ReductionCache> reduction;
   // What the topology depends on: node count, fixed-head flags and pipe endpoints.
   std::vector<std::size_t> signature;
   static void signature_of(const Network& net, std::vector<std::size_t>* s) {

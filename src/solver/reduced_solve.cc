@@ -1,0 +1,323 @@
+#include "solver/reduced_solve.h"
+
+#include <chrono>
+#include <cmath>
+#include <limits>
+
+#include "hydraulics/chain_law.h"
+#include "hydraulics/link_law.h"
+#include "solver/newton.h"
+
+namespace gradeline {
+namespace {
+
+using Clock = std::chrono::steady_clock;
+
+constexpr std::ptrdiff_t kParallelChains = 20000;  // below this, threads cost more than they save
+
+double seconds_since(Clock::time_point t) {
+  return std::chrono::duration<double>(Clock::now() - t).count();
+}
+
+// Per-solve quantities of the reduction: demands gathered down the branches and chains.
+struct Gathered {
+  std::vector<double> carried_m3s;  // per node: own demand plus the branches hanging from it
+  std::vector<double> core_demand_m3s;
+};
+
+Gathered gather_demands(const Network& net, const Reduction& r, const std::vector<double>& demand,
+                        ChainLaws* chains) {
+  Gathered g;
+  g.carried_m3s.resize(net.nodes.size());
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    g.carried_m3s[n] = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
+  }
+  for (std::size_t i = 0; i < r.tree_link.size(); ++i) {
+    g.carried_m3s[r.tree_parent[i]] += g.carried_m3s[r.tree_leaf[i]];
+  }
+  g.core_demand_m3s.resize(r.core_nodes.size());
+  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) {
+    g.core_demand_m3s[c] = g.carried_m3s[r.core_nodes[c]];
+  }
+  chains->offset_m3s.resize(r.member_link.size());
+  for (std::size_t c = 0; c < r.chains(); ++c) {
+    double taken = 0.0;
+    for (std::uint32_t i = r.chain_start[c]; i < r.chain_start[c + 1]; ++i) {
+      chains->offset_m3s[i] = taken;
+      if (i + 1 < r.chain_start[c + 1]) taken += g.carried_m3s[r.member_end[i]];
+    }
+    g.core_demand_m3s[r.core_of_node[r.chain_to[c]]] += taken;
+  }
+  return g;
+}
+
+void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions& options,
+                     ChainLaws* chains) {
+  chains->start.assign(r.chain_start.begin(), r.chain_start.end());
+  chains->law.clear();
+  chains->law.reserve(r.member_link.size());
+  for (std::uint32_t k : r.member_link) {
+    chains->law.push_back(
+        make_pipe_law(net.pipes[k], net.headloss, net.fluid, options.hw_regularisation_flow_m3s));
+  }
+  chains->colebrook_x.assign(r.member_link.size(), 0.0);
+  chains->sign.assign(r.member_sign.begin(), r.member_sign.end());
+}
+
+// The core as a network of its own: the kept nodes and links, then one link per chain (a copy
+// of the chain's first pipe between the chain's ends; its law is replaced by the chain's).
+// Only what the solver reads is copied: no source locations, categories or coordinates, and a
+// pump curve only for pumps.
+Network core_network(const Network& net, const Reduction& r) {
+  Network core;
+  core.units = net.units;
+  core.headloss = net.headloss;
+  core.fluid = net.fluid;
+  core.nodes.resize(r.core_nodes.size());
+  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) {
+    const Node& n = net.nodes[r.core_nodes[c]];
+    Node& m = core.nodes[c];
+    m.id = n.id;
+    m.kind = n.kind;
+    m.elevation_m = n.elevation_m;
+    m.demand_m3s = n.demand_m3s;
+    m.head_m = n.head_m;
+    m.level_m = n.level_m;
+    m.min_level_m = n.min_level_m;
+    m.max_level_m = n.max_level_m;
+    m.tank_diameter_m = n.tank_diameter_m;
+  }
+  core.pipes.resize(r.kept_links.size() + r.chains());
+  auto copy = [&](std::size_t at, std::uint32_t k, std::uint32_t from, std::uint32_t to) {
+    const Pipe& p = net.pipes[k];
+    Pipe& q = core.pipes[at];
+    q.id = p.id;
+    q.kind = p.kind;
+    q.from = static_cast<std::size_t>(r.core_of_node[from]);
+    q.to = static_cast<std::size_t>(r.core_of_node[to]);
+    q.length_m = p.length_m;
+    q.diameter_m = p.diameter_m;
+    q.roughness_m = p.roughness_m;
+    q.cfactor = p.cfactor;
+    q.minor_k = p.minor_k;
+    q.status = p.status;
+    q.check_valve = p.check_valve;
+    q.resizable = p.resizable;
+    if (p.is_pump()) q.curve = p.curve;
+    q.speed = p.speed;
+    q.efficiency = p.efficiency;
+    q.valve_head_m = p.valve_head_m;
+    q.valve_flow_m3s = p.valve_flow_m3s;
+    q.valve_loss_m = p.valve_loss_m;
+  };
+  for (std::size_t i = 0; i < r.kept_links.size(); ++i) {
+    const std::uint32_t k = r.kept_links[i];
+    copy(i, k, static_cast<std::uint32_t>(net.pipes[k].from),
+         static_cast<std::uint32_t>(net.pipes[k].to));
+  }
+  for (std::size_t c = 0; c < r.chains(); ++c) {
+    copy(r.kept_links.size() + c, r.member_link[r.chain_start[c]], r.chain_from[c], r.chain_to[c]);
+  }
+  return core;
+}
+
+void set_node(const Network& net, std::size_t n, double head_m, bool supplied, NodeState* ns) {
+  const double nan = std::numeric_limits<double>::quiet_NaN();
+  ns->supplied = supplied;
+  ns->head_m = supplied ? head_m : nan;
+  ns->pressure_m = ns->head_m - net.nodes[n].elevation_m;
+  ns->pressure_pa = ns->pressure_m * net.fluid.density_kgm3 * kGravity_ms2;
+}
+
+void set_link(const PipeLaw& law, double flow_m3s, const LinkEval& e, LinkState* ls) {
+  ls->open = true;
+  ls->flow_m3s = flow_m3s;
+  ls->velocity_ms = flow_m3s / law.area_m2;
+  ls->headloss_m = e.headloss_m;
+  ls->reynolds = e.reynolds;
+  ls->friction_factor = e.friction_factor;
+  ls->regime = e.regime;
+}
+
+// The chains' pipes and interior nodes, from each chain's start node. Chains share nothing, so
+// large networks share them among the cores.
+void expand_chains(const Network& net, const Reduction& r, const SolveResult& core,
+                   ChainLaws* chains, SolveResult* out) {
+  const std::ptrdiff_t count = static_cast<std::ptrdiff_t>(r.chains());
+#pragma omp parallel for schedule(static) if (count >= kParallelChains)
+  for (std::ptrdiff_t c = 0; c < count; ++c) {
+    const LinkState& chain = core.links[r.kept_links.size() + c];
+    const NodeState& start = out->nodes[r.chain_from[c]];
+    double head = start.head_m;
+    for (std::uint32_t i = r.chain_start[c]; i < r.chain_start[c + 1]; ++i) {
+      const bool last = i + 1 == r.chain_start[c + 1];
+      LinkState& ls = out->links[r.member_link[i]];
+      NodeState* interior = last ? nullptr : &out->nodes[r.member_end[i]];
+      if (!chain.open) {
+        ls.open = false;
+        if (interior) set_node(net, r.member_end[i], 0.0, false, interior);
+        continue;
+      }
+      const double q = r.member_sign[i] * (chain.flow_m3s - chains->offset_m3s[i]);
+      const LinkEval e = evaluate_pipe(chains->law[i], q, &chains->colebrook_x[i]);
+      set_link(chains->law[i], q, e, &ls);
+      head -= r.member_sign[i] * e.headloss_m;
+      if (interior) set_node(net, r.member_end[i], head, start.supplied, interior);
+    }
+  }
+}
+
+// The dead-end links: flows and losses link by link (in parallel), then heads from the core
+// outward, the reverse of the elimination order.
+void expand_trees(const Network& net, const Reduction& r, const SolveOptions& options,
+                  const Gathered& g, SolveResult* out) {
+  const std::ptrdiff_t count = static_cast<std::ptrdiff_t>(r.tree_link.size());
+#pragma omp parallel for schedule(static) if (count >= kParallelChains)
+  for (std::ptrdiff_t i = 0; i < count; ++i) {
+    const Pipe& p = net.pipes[r.tree_link[i]];
+    const std::uint32_t leaf = r.tree_leaf[i];
+    const double q = p.to == leaf ? g.carried_m3s[leaf] : -g.carried_m3s[leaf];
+    const PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
+    set_link(law, q, evaluate_pipe(law, q), &out->links[r.tree_link[i]]);
+  }
+  for (std::size_t i = r.tree_link.size(); i-- > 0;) {
+    const std::uint32_t leaf = r.tree_leaf[i];
+    const NodeState& up = out->nodes[r.tree_parent[i]];
+    LinkState& ls = out->links[r.tree_link[i]];
+    if (!up.supplied) {
+      ls = LinkState{};
+      ls.open = false;
+      set_node(net, leaf, 0.0, false, &out->nodes[leaf]);
+      continue;
+    }
+    const double drop = net.pipes[r.tree_link[i]].to == leaf ? ls.headloss_m : -ls.headloss_m;
+    set_node(net, leaf, up.head_m - drop, true, &out->nodes[leaf]);
+  }
+}
+
+// Spreads the core solution over the full network and recomputes the residuals there.
+SolveResult expand(const Network& net, const Reduction& r, const SolveOptions& options,
+                   const std::vector<double>& demand, const Gathered& g, ChainLaws* chains,
+                   SolveResult&& core) {
+  SolveResult out;
+  out.summary = std::move(core.summary);
+  out.nodes.resize(net.nodes.size());
+  out.links.resize(net.pipes.size());
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    out.nodes[n].demand_m3s = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
+  }
+  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) {
+    NodeState& ns = out.nodes[r.core_nodes[c]];
+    const double d = ns.demand_m3s;
+    ns = core.nodes[c];
+    ns.demand_m3s = d;
+  }
+  for (std::size_t i = 0; i < r.kept_links.size(); ++i) out.links[r.kept_links[i]] = core.links[i];
+  expand_chains(net, r, core, chains, &out);
+  expand_trees(net, r, options, g, &out); 
+  // Residuals on the full network: continuity at every supplied junction, energy on every
+  // eliminated link (the kept links keep the core's, which account for valve settings).
+  std::vector<double> balance(net.nodes.size(), 0.0);
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    balance[net.pipes[k].from] -= out.links[k].flow_m3s;
+    balance[net.pipes[k].to] += out.links[k].flow_m3s;
+  }
+  auto energy = [&](std::uint32_t k) {
+    LinkState& ls = out.links[k];
+    if (!ls.open) return;
+    const Pipe& p = net.pipes[k];
+    ls.energy_residual_m = ls.headloss_m - (out.nodes[p.from].head_m - out.nodes[p.to].head_m);
+  };
+  for (std::uint32_t k : r.member_link) energy(k);
+  for (std::uint32_t k : r.tree_link) energy(k);
+  SolveSummary& s = out.summary;
+  s.max_continuity_residual_m3s = s.max_energy_residual_m = 0.0;
+  s.worst_continuity_node = s.worst_energy_link = 0;
+  s.unsupplied_nodes = 0;
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    NodeState& ns = out.nodes[n];
+    if (!ns.supplied) ++s.unsupplied_nodes;
+    const bool counts = !net.nodes[n].is_fixed_head() && ns.supplied;
+    ns.continuity_residual_m3s = counts ? balance[n] - demand[n] : 0.0;
+    if (std::abs(ns.continuity_residual_m3s) > s.max_continuity_residual_m3s) {
+      s.max_continuity_residual_m3s = std::abs(ns.continuity_residual_m3s);
+      s.worst_continuity_node = n;
+    }
+  }
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    if (std::abs(out.links[k].energy_residual_m) > s.max_energy_residual_m) {
+      s.max_energy_residual_m = std::abs(out.links[k].energy_residual_m);
+      s.worst_energy_link = k;
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
+bool ReductionCache::matches(const Network& net, const std::vector<char>& eliminable_now) const {
+  if (topology.fixed_head.size() != net.nodes.size() || topology.from.size() != net.pipes.size() ||
+      eliminable != eliminable_now) {
+    return false;
+  }
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    if (topology.fixed_head[n] != static_cast<char>(net.nodes[n].is_fixed_head())) return false;
+  }
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    if (topology.from[k] != net.pipes[k].from || topology.to[k] != net.pipes[k].to) return false;
+  }
+  return true;
+}
+
+std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions& options,
+                                         const std::vector<double>& demand, SolverCache* cache,
+                                         const std::vector<double>* initial_flows) {
+  const auto start = Clock::now();
+  std::vector<char> eliminable = eliminable_links(net);
+  if (!cache->reduction || !cache->reduction->matches(net, eliminable)) {
+    auto rc = std::make_shared<ReductionCache>();
+    rc->topology = build_topology(net);
+    rc->reduction = reduce_topology(net, rc->topology, eliminable);
+    rc->eliminable = std::move(eliminable);
+    rc->worthwhile = rc->reduction.eliminated_nodes() > 0 &&
+                     rc->reduction.eliminated_nodes() >= kMinReducedShare * net.nodes.size();
+    cache->reduction = std::move(rc);
+  }
+  ReductionCache& rc = *cache->reduction;
+  if (!rc.worthwhile) return std::nullopt;
+  const Reduction& r = rc.reduction;
+
+  ChainLaws chains;
+  make_chain_laws(net, r, options, &chains);
+  const Gathered g = gather_demands(net, r, demand, &chains); 
+  const Network core = core_network(net, r);
+  std::vector<double> core_initial;
+  if (initial_flows && initial_flows->size() == net.pipes.size()) {
+    core_initial.reserve(core.pipes.size());
+    for (std::uint32_t k : r.kept_links) core_initial.push_back((*initial_flows)[k]);
+    for (std::size_t c = 0; c < r.chains(); ++c) {
+      const std::uint32_t i = r.chain_start[c];
+      core_initial.push_back(r.member_sign[i] * (*initial_flows)[r.member_link[i]]);
+    }
+  }
+  const double prepare_s = seconds_since(start);
+  const int analyses_before = rc.core.analyses;
+  SolveResult core_result = run_gradient_method(core, options, g.core_demand_m3s, &rc.core,
+                                                core_initial.empty() ? nullptr : &core_initial,
+                                                &chains);
+  cache->analyses += rc.core.analyses - analyses_before; 
+  SolveResult out = expand(net, r, options, demand, g, &chains, std::move(core_result));
+  ReductionSummary& rs = out.summary.reduction;
+  rs.applied = true;
+  rs.core_junctions = 0;
+  for (const Node& n : core.nodes) rs.core_junctions += !n.is_fixed_head();
+  rs.core_links = core.pipes.size();
+  rs.tree_links = r.tree_link.size();
+  rs.chain_links = r.member_link.size();
+  rs.chains = r.chains();
+  out.summary.timing.topology_s += prepare_s;
+  out.summary.timing.total_s = seconds_since(start);
+  return out;
+}
+
+}  // namespace gradeline

@@ -1,0 +1,46 @@
+// The solve of a network through its topological reduction (solver/reduction.h): dead-end
+// branches and series chains are taken out, the gradient method runs on the looped core with
+// the chains as single links, and the eliminated flows and heads are recovered exactly.
+//
+// Per solve, with d the demands (m^3/s):
+//   branches  Q_link = d_leaf + (what the leaf passes on), summed leaves first; the parent
+//             takes the whole branch's demand;
+//   chains    S_i = interior demand before pipe i (with the branches hanging there), and the
+//             chain's end node takes the chain's whole interior demand;
+//   recovery  interior heads walk down each chain from its start, branch heads outward from
+//             the core, H_next = H - h(Q) along the flow.
+// The result covers every node and link of the network as given, with continuity and energy
+// residuals recomputed on the full network, so a reduced solve reports and is checked exactly
+// like an unreduced one.
+#pragma once
+
+#include <optional>
+#include <vector>
+
+#include "gradeline/solver.h"
+#include "model/topology.h"
+#include "solver/reduction.h"
+#include "solver/solver_cache.h"
+
+namespace gradeline {
+
+// Eliminated nodes as a share of all nodes below which the reduction is not worth a copy.
+inline constexpr double kMinReducedShare = 0.01;
+
+// Kept in SolverCache between solves of one network shape.
+struct ReductionCache {
+  Topology topology;          // of the full network
+  std::vector<char> eliminable;
+  Reduction reduction;
+  bool worthwhile = false;
+  SolverCache core;           // the core network's own cache (plan, symbolic factorisation)
+  bool matches(const Network& net, const std::vector<char>& eliminable_now) const;
+};
+
+// The solve through the reduction, or nullopt when the reduction would remove too little.
+std::optional<SolveResult> solve_reduced(const Network& network, const SolveOptions& options,
+                                         const std::vector<double>& demand_m3s,
+                                         SolverCache* cache,
+                                         const std::vector<double>* initial_flows);
+
+}  // namespace gradeline

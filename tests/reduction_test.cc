@@ -1,0 +1,253 @@
+// Topological reduction: which nodes and links leave the Newton system, the chain law's dh/dQ,
+// and reduced solves against scipy (tools/reference_solve.py) and against unreduced solves.
+#include <doctest/doctest.h>
+
+#include <cmath>
+#include <fstream>
+#include <nlohmann/json.hpp>
+
+#include "gradeline/solver.h"
+#include "hydraulics/chain_law.h"
+#include "model/demand_cases.h"
+#include "model/topology.h"
+#include "solver/reduction.h"
+#include "test_support.h"
+
+using namespace gradeline;
+
+namespace {
+
+constexpr double kDerivativeRelTol = 1e-6;
+constexpr double kHeadTol_m = 1e-6;         // against scipy, as for the other reference networks
+constexpr double kFlowTol_m3s = 1e-8;
+constexpr double kSameHead_m = 1e-7;        // reduced against unreduced: both meet 1e-8 m energy
+constexpr double kSameFlow_m3s = 1e-8;      // and continuity tolerances, so they agree to about this
+constexpr double kContinuityTol_m3s = 1e-9;
+constexpr double kLoopTol_m = 1e-7;
+
+const char* kFluid =
+    "units SI\nfluid viscosity=1.0e-6m2/s density=998kg/m3\ndefaults roughness=0.1mm\n";
+
+Reduction reduce(const Network& net) {
+  return reduce_topology(net, build_topology(net), eliminable_links(net));
+}
+
+bool eliminated(const Network& net, const Reduction& r, const char* node) {
+  return r.core_of_node[*net.find_node(node)] == kEliminated;
+}
+
+SolveResult solve_with(const Network& net, bool reduce, const std::vector<double>& demand) {
+  SolveOptions o;
+  o.topological_reduction = reduce;
+  return solve(net, o, demand);
+}
+
+}  // namespace
+
+TEST_CASE("dead-end branches are peeled to the core, leaves first") {
+  // R - A, a loop A-B-C-A, and a branch C - D - E with a side leaf F at D.
+  Network net = testing::parse_or_fail(std::string(kFluid) +
+      "reservoir R head=50\nnode A elevation=0\nnode B elevation=0\nnode C elevation=0\n"
+      "node D elevation=0\nnode E elevation=0\nnode F elevation=0\n"
+      "pipe P0 R A length=10 diameter=100\npipe P1 A B length=10 diameter=100\n"
+      "pipe P2 B C length=10 diameter=100\npipe P3 C A length=10 diameter=100\n"
+      "pipe P4 C D length=10 diameter=100\npipe P5 E D length=10 diameter=100\n"
+      "pipe P6 D F length=10 diameter=100\n");
+  const Reduction r = reduce(net);
+  CHECK(r.tree_link.size() == 3);  // P5, P6, then P4; a reservoir is never a leaf
+  for (const char* n : {"D", "E", "F"}) CHECK(eliminated(net, r, n));
+  for (const char* n : {"R", "A", "B", "C"}) CHECK_FALSE(eliminated(net, r, n));
+  // D goes after both of its leaves.
+  const auto pos = [&](const char* leaf) {
+    const std::uint32_t n = static_cast<std::uint32_t>(*net.find_node(leaf));
+    for (std::size_t i = 0; i < r.tree_leaf.size(); ++i) {
+      if (r.tree_leaf[i] == n) return i;
+    }
+    return r.tree_leaf.size();
+  };
+  CHECK(pos("D") > pos("E"));
+  CHECK(pos("D") > pos("F"));
+}
+
+TEST_CASE("a series chain between branch nodes becomes one link; a ring on one node is kept") {
+  // Branch nodes A and C joined by A-B-C (a chain through B) and directly; a ring C-D-E-C.
+  Network net = testing::parse_or_fail(std::string(kFluid) +
+      "reservoir R head=50\nnode A elevation=0\nnode B elevation=0\nnode C elevation=0\n"
+      "node D elevation=0\nnode E elevation=0\n"
+      "pipe P0 R A length=10 diameter=100\npipe P1 A B length=10 diameter=100\n"
+      "pipe P2 C B length=10 diameter=100\npipe P3 A C length=10 diameter=100\n"
+      "pipe P4 C D length=10 diameter=100\npipe P5 D E length=10 diameter=100\n"
+      "pipe P6 E C length=10 diameter=100\n");
+  const Reduction r = reduce(net);
+  REQUIRE(r.chains() == 1);
+  CHECK(r.chain_start[1] - r.chain_start[0] == 2);
+  CHECK(eliminated(net, r, "B"));
+  CHECK_FALSE(eliminated(net, r, "D"));
+  CHECK_FALSE(eliminated(net, r, "E"));
+  // The chain runs A -> C or C -> A; P2 points against it in the first case.
+  const bool from_a = r.chain_from[0] == *net.find_node("A");
+  CHECK(r.member_sign[1] == (from_a ? -1 : 1));
+  CHECK(r.kept_links.size() == 5);  // P0, P3 and the ring's three pipes
+}
+
+TEST_CASE("pumps, valves, check valves, closed pipes and pipes at tanks are never eliminated") {
+  Network net = testing::parse_or_fail(std::string(kFluid) +
+      "reservoir R head=50\ntank T bottom=60 level=3 min_level=0.5 max_level=6 diameter=10\n"
+      "node A elevation=0\nnode B elevation=0\nnode C elevation=0\nnode D elevation=0\n"
+      "node E elevation=0\n"
+      "pipe P0 R A length=10 diameter=100\npipe P1 A B length=10 diameter=100 check=yes\n"
+      "pipe P2 A C length=10 diameter=100 status=closed\n"
+      "valve V1 A D diameter=100 type=prv pressure=200kPa\n"
+      "pipe P3 T E length=10 diameter=100\npipe P4 E A length=10 diameter=100\n");
+  const std::vector<char> e = eliminable_links(net);
+  for (const char* id : {"P1", "P2", "V1", "P3"}) {
+    CAPTURE(id);
+    CHECK_FALSE(e[*net.find_pipe(id)]);
+  }
+  CHECK(e[*net.find_pipe("P0")]);
+  CHECK(e[*net.find_pipe("P4")]);
+  const Reduction r = reduce(net);
+  for (const char* n : {"B", "C", "D", "E"}) CHECK_FALSE(eliminated(net, r, n));
+}
+
+TEST_CASE("the chain law's dh/dQ matches a central finite difference in every regime") {
+  // Three pipes, the second against the chain, with 0.4 and 1.1 L/s taken off between them;
+  // chain flows from reverse through laminar and transitional to turbulent in every pipe.
+  for (HeadlossLaw kind : {HeadlossLaw::kDarcyWeisbach, HeadlossLaw::kHazenWilliams}) {
+    HeadlossModel model;
+    model.law = kind;
+    Fluid fluid;
+    fluid.kinematic_viscosity_m2s = 1.1e-6;
+    ChainLaws chain;
+    for (double d : {0.1, 0.08, 0.15}) {
+      Pipe p;
+      p.length_m = 200.0;
+      p.diameter_m = d;
+      p.roughness_m = 1e-4;
+      p.cfactor = 110.0;
+      p.minor_k = 0.8;
+      chain.law.push_back(make_pipe_law(p, model, fluid, 1e-8));
+    }
+    chain.start = {0, 3};
+    chain.offset_m3s = {0.0, 4e-4, 1.5e-3};
+    chain.sign = {1, -1, 1};
+    chain.colebrook_x.assign(3, 0.0);
+    for (double q : {-0.02, -1e-3, 1e-5, 4e-4, 6e-4, 1.5e-3, 1.7e-3, 3e-3, 0.01, 0.05}) {
+      CAPTURE(q);
+      const double step = std::max(1e-7 * std::abs(q), 1e-10);
+      const double fd = (chain.evaluate(0, q + step).headloss_m -
+                         chain.evaluate(0, q - step).headloss_m) / (2 * step);
+      const LinkEval e = chain.evaluate(0, q);
+      CHECK(e.dh_dq == doctest::Approx(fd).epsilon(kDerivativeRelTol));
+      CHECK(e.dh_dq > 0.0);
+      // h is the sum of the pipe laws at the pipe flows (link_law.h), pipe by pipe.
+      double sum = 0.0;
+      for (int i = 0; i < 3; ++i) sum += evaluate_pipe(chain.law[i], q - chain.offset_m3s[i]).headloss_m;
+      CHECK(e.headloss_m == doctest::Approx(sum).epsilon(1e-12));
+    }
+  }
+}
+
+TEST_CASE("branches and chains with demands match scipy in every case") {
+  // tools/reference_solve.py: scipy.optimize.root on the full, unreduced system.
+  Network net = testing::load("tests/networks/branches_chains.gln");
+  std::ifstream in(testing::source_path("tests/reference/branches_chains.json"));
+  REQUIRE(in.good());
+  const nlohmann::json ref = nlohmann::json::parse(in);
+  auto compare = [&](const nlohmann::json& expected, const std::vector<double>& demand) {
+    SolveResult r = solve(net, SolveOptions{}, demand);
+    REQUIRE_MESSAGE(r.summary.converged(), r.summary.message);
+    CHECK(r.summary.reduction.applied);
+    CHECK(r.summary.reduction.core_junctions == 4);
+    CHECK(r.summary.reduction.tree_links == 5);
+    CHECK(r.summary.reduction.chains == 2);
+    double worst_head = 0.0, worst_flow = 0.0;
+    for (auto& [id, head] : expected["heads_m"].items()) {
+      worst_head = std::max(worst_head, std::abs(r.nodes[*net.find_node(id)].head_m - head.get<double>()));
+    }
+    for (auto& [id, flow] : expected["flows_m3s"].items()) {
+      worst_flow = std::max(worst_flow, std::abs(r.links[*net.find_pipe(id)].flow_m3s - flow.get<double>()));
+    }
+    MESSAGE("worst head error vs scipy " << worst_head << " m, flow " << worst_flow << " m3/s, "
+            << r.summary.iterations << " iterations");
+    CHECK(worst_head < kHeadTol_m);
+    CHECK(worst_flow < kFlowTol_m3s);
+    CHECK(testing::max_loop_headloss_m(net, r) < kLoopTol_m);
+    CHECK(testing::max_continuity_m3s(net, r) < kContinuityTol_m3s);
+  };
+  compare(ref, testing::base_demand(net));
+  for (const DemandCase& c : net.cases) {
+    CAPTURE(c.name);
+    compare(ref["cases"][c.name], case_demands(net, c));
+  }
+}
+
+TEST_CASE("reduced and unreduced solves agree on every shipped and test network") {
+  for (const char* file :
+       {"networks/brindlemoor.gln", "networks/quarry_hill.gln", "tests/networks/two_loop.gln",
+        "tests/networks/hanoi.gln", "tests/networks/loop_hazen.gln",
+        "tests/networks/loop_laminar.gln", "tests/networks/loop_minor_closed.gln",
+        "tests/networks/branches_chains.gln", "tests/networks/prv_zone.gln"}) {
+    Network net = testing::load(file);
+    for (const DemandCase& c : cases_of(net)) {
+      CAPTURE(file);
+      CAPTURE(c.name);
+      const std::vector<double> demand = case_demands(net, c);
+      const SolveResult a = solve_with(net, true, demand), b = solve_with(net, false, demand);
+      REQUIRE(a.summary.converged());
+      REQUIRE(b.summary.converged());
+      CHECK(a.summary.iterations <= b.summary.iterations + 1);
+      for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+        CHECK(a.nodes[n].supplied == b.nodes[n].supplied);
+        if (b.nodes[n].supplied) CHECK(std::abs(a.nodes[n].head_m - b.nodes[n].head_m) < kSameHead_m);
+      }
+      for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+        CHECK(a.links[k].open == b.links[k].open);
+        CHECK(std::abs(a.links[k].flow_m3s - b.links[k].flow_m3s) < kSameFlow_m3s);
+        CHECK(a.links[k].regime == b.links[k].regime);
+      }
+    }
+  }
+}
+
+TEST_CASE("a branch and a chain cut off by a closed pipe are unsupplied, as without reduction") {
+  // Behind the closed pipe PX: a chain B-C-D-E, two more pipes E-B, and a leaf F at B.
+  Network net = testing::parse_or_fail(std::string(kFluid) +
+      "reservoir R head=50\nnode A elevation=0 demand=1\nnode B elevation=0 demand=1\n"
+      "node C elevation=0 demand=1\nnode D elevation=0 demand=1\nnode E elevation=0 demand=1\n"
+      "node F elevation=0 demand=1\n"
+      "pipe P0 R A length=100 diameter=100\npipe PX A B length=100 diameter=100 status=closed\n"
+      "pipe P1 B C length=100 diameter=100\npipe P2 C D length=100 diameter=100\n"
+      "pipe P3 D E length=100 diameter=100\npipe P4 E B length=100 diameter=100\n"
+      "pipe P5 B F length=100 diameter=100\npipe P6 E B length=150 diameter=80\n");
+  const SolveResult a = solve_with(net, true, testing::base_demand(net));
+  const SolveResult b = solve_with(net, false, testing::base_demand(net));
+  REQUIRE(a.summary.reduction.applied);
+  CHECK(a.summary.unsupplied_nodes == 5);
+  CHECK(a.summary.unsupplied_nodes == b.summary.unsupplied_nodes);
+  for (const char* n : {"B", "C", "D", "E", "F"}) {
+    CAPTURE(n);
+    CHECK_FALSE(a.nodes[*net.find_node(n)].supplied);
+    CHECK(std::isnan(a.nodes[*net.find_node(n)].head_m));
+  }
+  for (const char* k : {"P1", "P2", "P3", "P4", "P5", "P6"}) {
+    CAPTURE(k);
+    CHECK_FALSE(a.links[*net.find_pipe(k)].open);
+    CHECK(a.links[*net.find_pipe(k)].flow_m3s == 0.0);
+  }
+}
+
+TEST_CASE("a session keeps one reduction and one analysis across cases, and warm starts map onto chains") {
+  Network net = testing::load("tests/networks/branches_chains.gln");
+  SolverSession session;
+  const SolveResult first = session.solve(net, {}, case_demands(net, net.cases[0]));
+  REQUIRE(first.summary.converged());
+  std::vector<double> flows;
+  for (const LinkState& l : first.links) flows.push_back(l.flow_m3s);
+  const SolveResult again = session.solve(net, {}, case_demands(net, net.cases[0]), &flows);
+  REQUIRE(again.summary.converged());
+  CHECK(again.summary.iterations <= 1);
+  const SolveResult other = session.solve(net, {}, case_demands(net, net.cases[1]), &flows);
+  REQUIRE(other.summary.converged());
+  CHECK(session.symbolic_analyses() == 1);
+}
