@@ -170,6 +170,8 @@ struct Network {
   // element as they were.
   std::optional<std::size_t> try_add_node(Node&& node);
   std::optional<std::size_t> try_add_pipe(Pipe&& pipe);
+  // Adds pipes[k], already in `pipes`, to the ID lookup unless its ID is taken (then false).
+  bool try_index_pipe(std::size_t k);
   void reserve(std::size_t nodes, std::size_t pipes);
 
  private:

@@ -379,35 +379,52 @@ bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostic
   return ok;
 }
 
-bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net, Diagnostics* d) {
-  const SourceLocation& w = p.pipe.where;
-  const std::optional<std::size_t> from = net->find_node(p.from_id);
-  const std::optional<std::size_t> to = net->find_node(p.to_id);
-  if (!from) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.from_id + "'");
-  if (!to) error(d, w, "pipe '" + p.pipe.id + "' refers to unknown node '" + p.to_id + "'");
-  p.pipe.from = from.value_or(0);
-  p.pipe.to = to.value_or(0);
-  if (!p.roughness_given) p.pipe.roughness_m = defaults.roughness_m;
-  if (!p.cfactor_given) p.pipe.cfactor = defaults.cfactor;
-  if (!p.minor_given && defaults.minor_k) p.pipe.minor_k = *defaults.minor_k;
-  const bool given = net->headloss.law == HeadlossLaw::kDarcyWeisbach ? p.roughness_given
-                                                                      : p.cfactor_given;
+PipeEnds ends_of(const PipeRead& p) {
+  return {p.from_id, p.to_id, p.roughness_given, p.cfactor_given, p.minor_given, p.valve_pressure};
+}
+
+bool settle_pipe(Pipe* pipe, const PipeEnds& e, const PipeDefaults& defaults, const Network& net,
+                 Diagnostics* d, bool* valid) {
+  const SourceLocation& w = pipe->where;
+  const std::optional<std::size_t> from = net.find_node(e.from_id);
+  const std::optional<std::size_t> to = net.find_node(e.to_id);
+  if (!from) {
+    error(d, w, "pipe '" + pipe->id + "' refers to unknown node '" + std::string(e.from_id) + "'");
+  }
+  if (!to) error(d, w, "pipe '" + pipe->id + "' refers to unknown node '" + std::string(e.to_id) + "'");
+  pipe->from = from.value_or(0);
+  pipe->to = to.value_or(0);
+  if (!e.roughness_given) pipe->roughness_m = defaults.roughness_m;
+  if (!e.cfactor_given) pipe->cfactor = defaults.cfactor;
+  if (!e.minor_given && defaults.minor_k) pipe->minor_k = *defaults.minor_k;
+  const bool given = net.headloss.law == HeadlossLaw::kDarcyWeisbach ? e.roughness_given
+                                                                     : e.cfactor_given;
   if (!from || !to) return false;
-  if (p.valve_pressure) {
+  if (e.valve_pressure) {
     // A pressure setting is held at the controlled node: downstream for a PRV, upstream for a
     // PSV; the valve holds the head elevation + pressure head there.
-    const Node& at = net->nodes[p.pipe.kind == LinkKind::kPrv ? *to : *from];
-    p.pipe.valve_head_m = at.elevation_m + p.valve_pressure->to_head_m(net->fluid.density_kgm3);
+    const Node& at = net.nodes[pipe->kind == LinkKind::kPrv ? *to : *from];
+    pipe->valve_head_m = at.elevation_m + e.valve_pressure->to_head_m(net.fluid.density_kgm3);
   }
-  const bool ok = check_pipe(p.pipe, net->headloss.law, given, d);
+  *valid = check_pipe(*pipe, net.headloss.law, given, d);
+  return true;
+}
+
+void duplicate_pipe_error(const Pipe& pipe, const Network& net, Diagnostics* d) {
+  const SourceLocation& first = net.pipes[*net.find_pipe(pipe.id)].where;
+  error(d, pipe.where,
+        "duplicate pipe ID '" + pipe.id + "' (first defined at " + first.file() + ":" +
+            std::to_string(first.line) + ")");
+}
+
+bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net, Diagnostics* d) {
+  bool valid = true;
+  if (!settle_pipe(&p.pipe, ends_of(p), defaults, *net, d, &valid)) return false;
   if (!net->try_add_pipe(std::move(p.pipe))) {  // p.pipe is left as it was when refused
-    const SourceLocation& first = net->pipes[*net->find_pipe(p.pipe.id)].where;
-    error(d, w,
-          "duplicate pipe ID '" + p.pipe.id + "' (first defined at " + first.file() + ":" +
-              std::to_string(first.line) + ")");
+    duplicate_pipe_error(p.pipe, *net, d);
     return false;
   }
-  return ok;
+  return valid;
 }
 
 std::optional<CaseRead> read_case(const Statement& s, const ReadContext& c) {

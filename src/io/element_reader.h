@@ -85,6 +85,25 @@ void read_junction_keys(StatementOptions& o, Node* n);
 bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
                          Diagnostics* diagnostics);
 
+// What a link statement leaves to settle once every node is known; the IDs view the text read.
+struct PipeEnds {
+  std::string_view from_id;
+  std::string_view to_id;
+  bool roughness_given = false;
+  bool cfactor_given = false;
+  bool minor_given = false;
+  std::optional<PendingPressure> valve_pressure;
+};
+PipeEnds ends_of(const PipeRead& p);
+
+// The part of add_pipe_to_network before the pipe joins the network: resolves the ends of
+// `pipe` in `net`, applies the defaults and checks it. Returns false when an end node is
+// unknown (the pipe cannot join); *valid is false when another check failed.
+bool settle_pipe(Pipe* pipe, const PipeEnds& ends, const PipeDefaults& defaults,
+                 const Network& net, Diagnostics* diagnostics, bool* valid);
+// "duplicate pipe ID ..." for `pipe`, whose ID an earlier link of `net` has.
+void duplicate_pipe_error(const Pipe& pipe, const Network& net, Diagnostics* diagnostics);
+
 // Checks of a pipe that depend on more than one key: roughness against the radius, and the
 // value the head-loss law needs.
 bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostics* diagnostics);

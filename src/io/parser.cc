@@ -4,6 +4,7 @@
 #include <cerrno>
 #include <cmath>
 #include <cstring>
+#include <deque>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
@@ -60,7 +61,17 @@ class NetworkParser {
 
   Diagnostics diagnostics_;
   Network net_;
-  std::vector<PipeRead> pipes_;
+  // Links are placed in net_.pipes as read, with what they leave to settle in ends_ (the IDs
+  // view texts_, kept until finish()); they join the ID lookup there, in file order.
+  void stage(std::optional<PipeRead>&& p, const Statement& s) {
+    if (!p) return;
+    ends_.push_back(ends_of(*p));
+    ends_.back().from_id = s.positional[1];  // the same IDs, viewed in the text
+    ends_.back().to_id = s.positional[2];
+    net_.pipes.push_back(std::move(p->pipe));
+  }
+  std::vector<PipeEnds> ends_;
+  std::deque<std::string> texts_;
   std::vector<PendingReservoir> pending_reservoirs_;
   std::vector<CaseRead> cases_;
   std::vector<LimitRead> limits_;
@@ -84,7 +95,8 @@ void NetworkParser::parse_file(const std::string& path, int depth, const std::st
     error(from_file, from_line, "include cycle: '" + path + "' is already being read");
     return;
   }
-  std::string text, why;
+  std::string why;
+  std::string& text = texts_.emplace_back();
   if (!read_text_file(path, &text, &why)) {
     if (from_file.empty()) {
       error(path, 0, "cannot read file: " + why);
@@ -110,7 +122,7 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
       if (word == "pipe" || word == "pump" || word == "valve") ++link_lines;
     }
     net_.reserve(node_lines, link_lines);
-    pipes_.reserve(link_lines);
+    ends_.reserve(link_lines);
   }
   if (depth == 0) {
     last_file_ = file;
@@ -157,10 +169,10 @@ void NetworkParser::statement(const Statement& s, const std::string& file, int d
     if (n) add_node(std::move(*n), &index);
   } else if (k == "valve") {
     units_locked_ = true;
-    if (auto p = read_valve(s, context(file))) pipes_.push_back(std::move(*p));
+    stage(read_valve(s, context(file)), s);
   } else if (k == "pump") {
     units_locked_ = true;
-    if (auto p = read_pump(s, context(file))) pipes_.push_back(std::move(*p));
+    stage(read_pump(s, context(file)), s);
   } else if (k == "case") {
     units_locked_ = true;
     if (auto c = read_case(s, context(file))) cases_.push_back(std::move(*c));
@@ -280,7 +292,7 @@ void NetworkParser::node(const Statement& s, const std::string& file) {
 
 void NetworkParser::pipe(const Statement& s, const std::string& file) {
   units_locked_ = true;
-  if (auto p = read_pipe(s, context(file))) pipes_.push_back(std::move(*p));
+  stage(read_pipe(s, context(file)), s);
 }
 
 void NetworkParser::include(const Statement& s, const std::string& file, int depth) {
@@ -313,17 +325,28 @@ ParseResult NetworkParser::finish() {
   }
 
   // Resolving the end nodes is a hash lookup each, mostly cache misses on large networks, so
-  // the slots a few pipes ahead are requested early.
+  // the slots a few links ahead are requested early. A link that cannot join (an unknown end,
+  // a duplicate ID) is dropped and the later ones move up.
   constexpr std::size_t kAhead = 8;
-  for (std::size_t k = 0; k < pipes_.size(); ++k) {
+  std::vector<Pipe>& pipes = net_.pipes;
+  std::size_t kept = 0;
+  for (std::size_t k = 0; k < pipes.size(); ++k) {
     if (diagnostics_.full()) break;
-    if (k + kAhead < pipes_.size()) {
-      net_.prefetch_node(pipes_[k + kAhead].from_id);
-      net_.prefetch_node(pipes_[k + kAhead].to_id);
-      net_.prefetch_pipe(pipes_[k + kAhead].pipe.id);
+    if (k + kAhead < pipes.size()) {
+      net_.prefetch_node(ends_[k + kAhead].from_id);
+      net_.prefetch_node(ends_[k + kAhead].to_id);
+      net_.prefetch_pipe(pipes[k + kAhead].id);
     }
-    add_pipe_to_network(std::move(pipes_[k]), defaults_, &net_, &diagnostics_);
+    bool valid = true;
+    if (!settle_pipe(&pipes[k], ends_[k], defaults_, net_, &diagnostics_, &valid)) continue;
+    if (kept != k) pipes[kept] = std::move(pipes[k]);
+    if (!net_.try_index_pipe(kept)) {
+      duplicate_pipe_error(pipes[kept], net_, &diagnostics_);
+      continue;
+    }
+    ++kept;
   }
+  pipes.resize(kept);
   for (std::size_t i = 0; i < cases_.size(); ++i) {
     CaseRead& c = cases_[i];
     const DemandCase& dc = c.demand_case;
