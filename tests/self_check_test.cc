@@ -42,3 +42,36 @@ TEST_CASE("a non-finite value fails the check") {
   CHECK_FALSE(c.ok);
   CHECK(c.failure == "pipe 'S1' has a non-finite flow or head loss");
 }
+
+TEST_CASE("on a network checked on every core, the first failing link in file order is named") {
+  // 30,000 pipes in series from one reservoir (above the parallel threshold of 20,000 links),
+  // each junction taking 0.01 L/s; two links are then given non-finite flows.
+  Network net;
+  Node r;
+  r.id = "R";
+  r.kind = NodeKind::kReservoir;
+  r.head_m = 100.0;
+  net.add_node(r);
+  for (int i = 1; i <= 30000; ++i) {
+    Node n;
+    n.id = "J" + std::to_string(i);
+    n.demand_m3s = 1e-5;
+    net.add_node(n);
+    Pipe p;
+    p.id = "P" + std::to_string(i);
+    p.from = static_cast<std::size_t>(i - 1);
+    p.to = static_cast<std::size_t>(i);
+    p.length_m = 10.0;
+    p.diameter_m = 0.3;
+    p.roughness_m = 1e-4;
+    net.add_pipe(p);
+  }
+  SolveResult result = solve(net);
+  REQUIRE(result.summary.converged());
+  CHECK(check_result(net, testing::base_demand(net), result, {}).ok);
+  result.links[27000].flow_m3s = std::numeric_limits<double>::quiet_NaN();
+  result.links[21000].flow_m3s = std::numeric_limits<double>::infinity();
+  const SelfCheck c = check_result(net, testing::base_demand(net), result, {});
+  CHECK_FALSE(c.ok);
+  CHECK(c.failure == "pipe 'P21001' has a non-finite flow or head loss");
+}

@@ -7,6 +7,56 @@
 
 namespace gradeline {
 
+namespace {
+
+constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
+
+// Why link k fails the check, or "" when it passes.
+std::string link_failure(const Network& net, const SolveResult& r, const SolveOptions& options,
+                         std::size_t k) {
+  const LinkState& l = r.links[k];
+  const Pipe& p = net.pipes[k];
+  if (!std::isfinite(l.flow_m3s) || !std::isfinite(l.headloss_m) || !std::isfinite(l.velocity_ms)) {
+    return "pipe '" + p.id + "' has a non-finite flow or head loss";
+  }
+  if (!l.open && l.flow_m3s != 0.0) return "closed pipe '" + p.id + "' carries flow";
+  PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
+  if (!l.open) {
+    const NodeState &a = r.nodes[p.from], &b = r.nodes[p.to];
+    const bool at_empty_tank = net.nodes[p.from].receives_only() || net.nodes[p.to].receives_only();
+    if (l.closed_by_check_valve && p.check_valve && !at_empty_tank && a.supplied && b.supplied &&
+        a.head_m - b.head_m - law.zero_flow_headloss_m > kSelfCheckSlack * options.energy_tolerance_m) {
+      return std::string(p.is_pump() ? "pump '" : "check valve '") + p.id +
+             "' is closed with a head favouring forward flow";
+    }
+    return "";
+  }
+  if (l.valve_mode == ValveMode::kActive) {
+    // An active control valve holds its setting instead of obeying a loss law.
+    const double tol_h = kSelfCheckSlack * 1e-6;
+    const double held = p.kind == LinkKind::kPrv ? r.nodes[p.to].head_m - p.valve_head_m
+                        : p.kind == LinkKind::kPsv ? r.nodes[p.from].head_m - p.valve_head_m
+                                                   : 0.0;
+    if (!(std::abs(held) <= tol_h) ||
+        (p.kind == LinkKind::kFcv && std::abs(l.flow_m3s - p.valve_flow_m3s) >
+                                         kSelfCheckSlack * options.continuity_tolerance_m3s)) {
+      return std::string(link_kind_name(p.kind)) + " '" + p.id + "' does not hold its setting";
+    }
+    return "";
+  }
+  const double h = evaluate_pipe(law, l.flow_m3s).headloss_m;
+  const double e = h - (r.nodes[p.from].head_m - r.nodes[p.to].head_m);
+  const double tolerance = kSelfCheckSlack * options.energy_tolerance_m;
+  if (!(std::abs(e) <= tolerance)) {
+    std::ostringstream m;
+    m << "pipe '" << p.id << "' energy residual " << e << " m exceeds " << tolerance << " m";
+    return m.str();
+  }
+  return "";
+}
+
+}  // namespace
+
 SelfCheck check_result(const Network& net, const std::vector<double>& demand,
                        const SolveResult& r, const SolveOptions& options) {
   SelfCheck out;
@@ -18,48 +68,19 @@ SelfCheck check_result(const Network& net, const std::vector<double>& demand,
   if (r.nodes.size() != net.nodes.size() || r.links.size() != net.pipes.size()) {
     return fail("the result does not cover the network");
   }
+  // Every link is checked on its own, so large networks share them among the cores; the first
+  // failing link in file order is the one reported, however they were shared.
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net.pipes.size());
+  std::ptrdiff_t first = links;
+#pragma omp parallel for schedule(static) if (links >= kParallelLinks) reduction(min : first)
+  for (std::ptrdiff_t k = 0; k < links; ++k) {
+    if (k < first && !link_failure(net, r, options, static_cast<std::size_t>(k)).empty()) first = k;
+  }
+  if (first < links) return fail(link_failure(net, r, options, static_cast<std::size_t>(first)));
   std::vector<double> balance(net.nodes.size(), 0.0);
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    const LinkState& l = r.links[k];
-    const Pipe& p = net.pipes[k];
-    if (!std::isfinite(l.flow_m3s) || !std::isfinite(l.headloss_m) || !std::isfinite(l.velocity_ms)) {
-      return fail("pipe '" + p.id + "' has a non-finite flow or head loss");
-    }
-    if (!l.open && l.flow_m3s != 0.0) return fail("closed pipe '" + p.id + "' carries flow");
-    balance[p.from] -= l.flow_m3s;
-    balance[p.to] += l.flow_m3s;
-    PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
-    if (!l.open) {
-      const NodeState &a = r.nodes[p.from], &b = r.nodes[p.to];
-      const bool at_empty_tank = net.nodes[p.from].receives_only() || net.nodes[p.to].receives_only();
-      if (l.closed_by_check_valve && p.check_valve && !at_empty_tank && a.supplied && b.supplied &&
-          a.head_m - b.head_m - law.zero_flow_headloss_m > kSelfCheckSlack * options.energy_tolerance_m) {
-        return fail(std::string(p.is_pump() ? "pump '" : "check valve '") + p.id +
-                    "' is closed with a head favouring forward flow");
-      }
-      continue;
-    }
-    if (l.valve_mode == ValveMode::kActive) {
-      // An active control valve holds its setting instead of obeying a loss law.
-      const double tol_h = kSelfCheckSlack * 1e-6;
-      const double held = p.kind == LinkKind::kPrv ? r.nodes[p.to].head_m - p.valve_head_m
-                          : p.kind == LinkKind::kPsv ? r.nodes[p.from].head_m - p.valve_head_m
-                                                     : 0.0;
-      if (!(std::abs(held) <= tol_h) ||
-          (p.kind == LinkKind::kFcv && std::abs(l.flow_m3s - p.valve_flow_m3s) >
-                                           kSelfCheckSlack * options.continuity_tolerance_m3s)) {
-        return fail(std::string(link_kind_name(p.kind)) + " '" + p.id + "' does not hold its setting");
-      }
-      continue;
-    }
-    const double h = evaluate_pipe(law, l.flow_m3s).headloss_m;
-    const double e = h - (r.nodes[p.from].head_m - r.nodes[p.to].head_m);
-    const double tolerance = kSelfCheckSlack * options.energy_tolerance_m;
-    if (!(std::abs(e) <= tolerance)) {
-      std::ostringstream m;
-      m << "pipe '" << p.id << "' energy residual " << e << " m exceeds " << tolerance << " m";
-      return fail(m.str());
-    }
+    balance[net.pipes[k].from] -= r.links[k].flow_m3s;
+    balance[net.pipes[k].to] += r.links[k].flow_m3s;
   }
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
     const NodeState& ns = r.nodes[n];
