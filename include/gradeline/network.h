@@ -162,6 +162,14 @@ struct Network {
   // Hints that find_node(id) will be called soon (see IdIndex::prefetch).
   void prefetch_node(std::string_view id) const { node_index_.prefetch(id); }
   void prefetch_pipe(std::string_view id) const { pipe_index_.prefetch(id); }
+  // A later stage of the same hint: once the ID's slot is in the cache, the node it names.
+  void prefetch_node_element(std::string_view id) const {
+    node_index_.prefetch_element(id, [this](std::size_t i) {
+      const char* p = reinterpret_cast<const char*>(&nodes[i]);
+      __builtin_prefetch(p);
+      __builtin_prefetch(p + 32);
+    });
+  }
   // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
   void reindex();
   std::size_t add_node(Node node);

@@ -29,6 +29,22 @@ const std::vector<std::string> kKeywords = {"title", "units",    "headloss", "fl
                                             "node",  "pipe",     "defaults", "include", "case",
                                             "limit", "tank",     "pump",     "valve"};
 
+// Adding a node is a hash insertion, a cache miss on large networks: the slot of the node
+// declared this many lines ahead is requested early.
+constexpr std::size_t kNodeLookAhead = 16;
+
+bool is_blank(char c) { return c == ' ' || c == '\t'; }
+
+std::string_view first_field(std::string_view* line) {
+  std::size_t i = 0;
+  while (i < line->size() && is_blank((*line)[i])) ++i;
+  std::size_t j = i;
+  while (j < line->size() && !is_blank((*line)[j]) && (*line)[j] != '#') ++j;
+  const std::string_view field = line->substr(i, j - i);
+  line->remove_prefix(j);
+  return field;
+}
+
 struct PendingReservoir {
   std::size_t node = 0;
   PendingPressure pressure;
@@ -55,6 +71,14 @@ class NetworkParser {
     return {file, file_names_.back(), net_.units, &diagnostics_};
   }
   bool add_node(Node n, std::size_t* index);
+  // A hint only: the ID of a node statement on `line`, looked for without a full lex.
+  void prefetch_node_slot(std::string_view line) const {
+    const std::string_view word = first_field(&line);
+    if (word == "node" || word == "reservoir" || word == "tank") {
+      const std::string_view id = first_field(&line);
+      if (!id.empty()) net_.prefetch_node(id);
+    }
+  }
   void error(const std::string& file, int line, std::string message) {
     diagnostics_.error(file, line, std::move(message));
   }
@@ -131,6 +155,7 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
   file_names_.push_back(std::make_shared<const std::string>(file));
   Statement s;
   for (std::size_t i = 0; i < lines.size() && !diagnostics_.full(); ++i) {
+    if (i + kNodeLookAhead < lines.size()) prefetch_node_slot(lines[i + kNodeLookAhead]);
     const int line = static_cast<int>(i) + 1;
     LexResult lexed = lex_line(lines[i], line, &s);
     if (!lexed.error.empty()) {
@@ -327,15 +352,21 @@ ParseResult NetworkParser::finish() {
   // Resolving the end nodes is a hash lookup each, mostly cache misses on large networks, so
   // the slots a few links ahead are requested early. A link that cannot join (an unknown end,
   // a duplicate ID) is dropped and the later ones move up.
-  constexpr std::size_t kAhead = 8;
+  // In two stages: the slots 32 links ahead, then, 16 ahead, the nodes those slots point to
+  // (only for IDs too long to be kept in the slot).
+  constexpr std::size_t kAhead = 16;
   std::vector<Pipe>& pipes = net_.pipes;
   std::size_t kept = 0;
   for (std::size_t k = 0; k < pipes.size(); ++k) {
     if (diagnostics_.full()) break;
+    if (k + 2 * kAhead < pipes.size()) {
+      net_.prefetch_node(ends_[k + 2 * kAhead].from_id);
+      net_.prefetch_node(ends_[k + 2 * kAhead].to_id);
+      net_.prefetch_pipe(pipes[k + 2 * kAhead].id);
+    }
     if (k + kAhead < pipes.size()) {
-      net_.prefetch_node(ends_[k + kAhead].from_id);
-      net_.prefetch_node(ends_[k + kAhead].to_id);
-      net_.prefetch_pipe(pipes[k + kAhead].id);
+      net_.prefetch_node_element(ends_[k + kAhead].from_id);
+      net_.prefetch_node_element(ends_[k + kAhead].to_id);
     }
     bool valid = true;
     if (!settle_pipe(&pipes[k], ends_[k], defaults_, net_, &diagnostics_, &valid)) continue;
