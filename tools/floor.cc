@@ -1,11 +1,12 @@
 // The sparse-factorisation floor of a gradeline solve: times CHOLMOD's symbolic analysis,
-// numeric factorisation and triangular solve alone, on the exact matrix gradeline assembles for
-// the network at its converged flows.
+// numeric factorisation and triangular solve alone, on the global-gradient matrix of the whole
+// network at its converged flows (the floor of the unreduced method), and on the matrix
+// gradeline assembles after its topological reduction (core_*).
 //   build/gradeline_floor NETWORK [REPEATS]
-// Prints one line: "floor analyse_s=... factor_s=... solve_s=... unknowns=... nnz=...", with the
-// factor and solve times the median of REPEATS runs (default 7): the faster of the matrix in
-// file order under AMD and the matrix renumbered by the postordered AMD order under the natural
-// ordering (the file-order times are also printed, as file_order_*).
+// Prints one line: "floor analyse_s=... factor_s=... solve_s=... unknowns=... nnz=... core_...",
+// with the factor and solve times the median of REPEATS runs (default 7): the faster of the
+// matrix in file order under AMD and the matrix renumbered by the postordered AMD order under
+// the natural ordering (the file-order times are also printed, as file_order_*).
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
@@ -17,6 +18,8 @@
 #include "hydraulics/link_law.h"
 #include "io/parser.h"
 #include "solver/assembly.h"
+#include "solver/reduced_solve.h"
+#include "solver/reduction.h"
 #include "solver/sparse_cholesky.h"
 
 using namespace gradeline;
@@ -108,5 +111,46 @@ int main(int argc, char** argv) {
               median(analyse), std::min(factor_s, factor_file_s), std::min(solve_s, solve_file_s),
               plan.unknowns, static_cast<long long>(plan.matrix.nonZeros()), name, factor_file_s,
               solve_file_s, factor_s, flops_per_entry);
+  // The reduced system: the core network with one link per series chain, at the same flows.
+  const Topology topology = build_topology(net);
+  const Reduction reduction = reduce_topology(net, topology, eliminable_links(net));
+  std::vector<double> demand(net.nodes.size());
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) demand[n] = r.nodes[n].demand_m3s;
+  CoreProblem core = make_core_problem(net, reduction, SolveOptions{}, demand);
+  const Network& cn = core.network;
+  std::vector<double> core_conductance(cn.pipes.size(), 0.0);
+  std::vector<char> core_unsupplied(cn.nodes.size(), 0);
+  for (std::size_t c = 0; c < cn.nodes.size(); ++c) {
+    core_unsupplied[c] = !r.nodes[reduction.core_nodes[c]].supplied;
+  }
+  for (std::size_t i = 0; i < reduction.kept_links.size(); ++i) {
+    core_conductance[i] = conductance[reduction.kept_links[i]];
+  }
+  for (std::size_t c = 0; c < reduction.chains(); ++c) {
+    const std::uint32_t first = reduction.chain_start[c];
+    const LinkState& l = r.links[reduction.member_link[first]];
+    if (!l.open) continue;
+    const double q = reduction.member_sign[first] * l.flow_m3s;
+    core_conductance[reduction.kept_links.size() + c] = 1.0 / core.chains.evaluate(c, q).dh_dq;
+  }
+  AssemblyPlan core_file_order = plan_assembly(cn);
+  AssemblyPlan core_plan = plan_assembly(cn, junction_order(cn));
+  assemble_matrix(core_conductance, core_unsupplied, &core_file_order);
+  assemble_matrix(core_conductance, core_unsupplied, &core_plan);
+  std::vector<double> core_analyse;
+  for (int i = 0; i < 3; ++i) {
+    auto chol = make_sparse_cholesky(backend, Ordering::kAmd);
+    auto t = Clock::now();
+    chol->analyze(core_file_order.matrix);
+    core_analyse.push_back(since(t));
+  }
+  rhs = Eigen::VectorXd::Ones(core_plan.unknowns);
+  double core_factor_s = 0, core_solve_s = 0;
+  if (core_plan.unknowns > 0 &&
+      !time_factor(core_plan, Ordering::kNatural, &core_factor_s, &core_solve_s, &name)) {
+    return 3;
+  }
+  std::printf("core core_analyse_s=%.6f core_factor_s=%.6f core_solve_s=%.6f core_unknowns=%d\n",
+              median(core_analyse), core_factor_s, core_solve_s, core_plan.unknowns);
   return 0;
 }

@@ -19,36 +19,28 @@ double seconds_since(Clock::time_point t) {
   return std::chrono::duration<double>(Clock::now() - t).count();
 }
 
-// Per-solve quantities of the reduction: demands gathered down the branches and chains.
-struct Gathered {
-  std::vector<double> carried_m3s;  // per node: own demand plus the branches hanging from it
-  std::vector<double> core_demand_m3s;
-};
-
-Gathered gather_demands(const Network& net, const Reduction& r, const std::vector<double>& demand,
-                        ChainLaws* chains) {
-  Gathered g;
-  g.carried_m3s.resize(net.nodes.size());
+// Demands gathered down the branches (leaves first) and along the chains.
+void gather_demands(const Network& net, const Reduction& r, const std::vector<double>& demand,
+                    CoreProblem* p) {
+  std::vector<double>& carried = p->carried_m3s;
+  carried.resize(net.nodes.size());
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    g.carried_m3s[n] = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
+    carried[n] = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
   }
   for (std::size_t i = 0; i < r.tree_link.size(); ++i) {
-    g.carried_m3s[r.tree_parent[i]] += g.carried_m3s[r.tree_leaf[i]];
+    carried[r.tree_parent[i]] += carried[r.tree_leaf[i]];
   }
-  g.core_demand_m3s.resize(r.core_nodes.size());
-  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) {
-    g.core_demand_m3s[c] = g.carried_m3s[r.core_nodes[c]];
-  }
-  chains->offset_m3s.resize(r.member_link.size());
+  p->demand_m3s.resize(r.core_nodes.size());
+  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) p->demand_m3s[c] = carried[r.core_nodes[c]];
+  p->chains.offset_m3s.resize(r.member_link.size());
   for (std::size_t c = 0; c < r.chains(); ++c) {
     double taken = 0.0;
     for (std::uint32_t i = r.chain_start[c]; i < r.chain_start[c + 1]; ++i) {
-      chains->offset_m3s[i] = taken;
-      if (i + 1 < r.chain_start[c + 1]) taken += g.carried_m3s[r.member_end[i]];
+      p->chains.offset_m3s[i] = taken;
+      if (i + 1 < r.chain_start[c + 1]) taken += carried[r.member_end[i]];
     }
-    g.core_demand_m3s[r.core_of_node[r.chain_to[c]]] += taken;
+    p->demand_m3s[r.core_of_node[r.chain_to[c]]] += taken;
   }
-  return g;
 }
 
 void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions& options,
@@ -64,9 +56,7 @@ void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions&
   chains->sign.assign(r.member_sign.begin(), r.member_sign.end());
 }
 
-// The core as a network of its own: the kept nodes and links, then one link per chain (a copy
-// of the chain's first pipe between the chain's ends; its law is replaced by the chain's).
-// Only what the solver reads is copied: no source locations, categories or coordinates, and a
+// The core network (see CoreProblem). Only what the solver reads is copied: no source locations, categories or coordinates, and a
 // pump curve only for pumps.
 Network core_network(const Network& net, const Reduction& r) {
   Network core;
@@ -170,13 +160,13 @@ void expand_chains(const Network& net, const Reduction& r, const SolveResult& co
 // The dead-end links: flows and losses link by link (in parallel), then heads from the core
 // outward, the reverse of the elimination order.
 void expand_trees(const Network& net, const Reduction& r, const SolveOptions& options,
-                  const Gathered& g, SolveResult* out) {
+                  const std::vector<double>& carried_m3s, SolveResult* out) {
   const std::ptrdiff_t count = static_cast<std::ptrdiff_t>(r.tree_link.size());
 #pragma omp parallel for schedule(static) if (count >= kParallelChains)
   for (std::ptrdiff_t i = 0; i < count; ++i) {
     const Pipe& p = net.pipes[r.tree_link[i]];
     const std::uint32_t leaf = r.tree_leaf[i];
-    const double q = p.to == leaf ? g.carried_m3s[leaf] : -g.carried_m3s[leaf];
+    const double q = p.to == leaf ? carried_m3s[leaf] : -carried_m3s[leaf];
     const PipeLaw law = make_pipe_law(p, net.headloss, net.fluid, options.hw_regularisation_flow_m3s);
     set_link(law, q, evaluate_pipe(law, q), &out->links[r.tree_link[i]]);
   }
@@ -197,7 +187,7 @@ void expand_trees(const Network& net, const Reduction& r, const SolveOptions& op
 
 // Spreads the core solution over the full network and recomputes the residuals there.
 SolveResult expand(const Network& net, const Reduction& r, const SolveOptions& options,
-                   const std::vector<double>& demand, const Gathered& g, ChainLaws* chains,
+                   const std::vector<double>& demand, const std::vector<double>& carried_m3s, ChainLaws* chains,
                    SolveResult&& core) {
   SolveResult out;
   out.summary = std::move(core.summary);
@@ -214,7 +204,7 @@ SolveResult expand(const Network& net, const Reduction& r, const SolveOptions& o
   }
   for (std::size_t i = 0; i < r.kept_links.size(); ++i) out.links[r.kept_links[i]] = core.links[i];
   expand_chains(net, r, core, chains, &out);
-  expand_trees(net, r, options, g, &out); 
+  expand_trees(net, r, options, carried_m3s, &out); 
   // Residuals on the full network: continuity at every supplied junction, energy on every
   // eliminated link (the kept links keep the core's, which account for valve settings).
   std::vector<double> balance(net.nodes.size(), 0.0);
@@ -255,6 +245,15 @@ SolveResult expand(const Network& net, const Reduction& r, const SolveOptions& o
 
 }  // namespace
 
+CoreProblem make_core_problem(const Network& net, const Reduction& r, const SolveOptions& options,
+                              const std::vector<double>& demand) {
+  CoreProblem p;
+  make_chain_laws(net, r, options, &p.chains);
+  gather_demands(net, r, demand, &p);
+  p.network = core_network(net, r);
+  return p;
+}
+
 bool ReductionCache::matches(const Network& net, const std::vector<char>& eliminable_now) const {
   if (topology.fixed_head.size() != net.nodes.size() || topology.from.size() != net.pipes.size() ||
       eliminable != eliminable_now) {
@@ -287,13 +286,10 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
   if (!rc.worthwhile) return std::nullopt;
   const Reduction& r = rc.reduction;
 
-  ChainLaws chains;
-  make_chain_laws(net, r, options, &chains);
-  const Gathered g = gather_demands(net, r, demand, &chains); 
-  const Network core = core_network(net, r);
+  CoreProblem p = make_core_problem(net, r, options, demand);
   std::vector<double> core_initial;
   if (initial_flows && initial_flows->size() == net.pipes.size()) {
-    core_initial.reserve(core.pipes.size());
+    core_initial.reserve(p.network.pipes.size());
     for (std::uint32_t k : r.kept_links) core_initial.push_back((*initial_flows)[k]);
     for (std::size_t c = 0; c < r.chains(); ++c) {
       const std::uint32_t i = r.chain_start[c];
@@ -302,16 +298,17 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
   }
   const double prepare_s = seconds_since(start);
   const int analyses_before = rc.core.analyses;
-  SolveResult core_result = run_gradient_method(core, options, g.core_demand_m3s, &rc.core,
+  SolveResult core_result = run_gradient_method(p.network, options, p.demand_m3s, &rc.core,
                                                 core_initial.empty() ? nullptr : &core_initial,
-                                                &chains);
+                                                &p.chains);
   cache->analyses += rc.core.analyses - analyses_before; 
-  SolveResult out = expand(net, r, options, demand, g, &chains, std::move(core_result));
+  SolveResult out =
+      expand(net, r, options, demand, p.carried_m3s, &p.chains, std::move(core_result));
   ReductionSummary& rs = out.summary.reduction;
   rs.applied = true;
   rs.core_junctions = 0;
-  for (const Node& n : core.nodes) rs.core_junctions += !n.is_fixed_head();
-  rs.core_links = core.pipes.size();
+  for (const Node& n : p.network.nodes) rs.core_junctions += !n.is_fixed_head();
+  rs.core_links = p.network.pipes.size();
   rs.tree_links = r.tree_link.size();
   rs.chain_links = r.member_link.size();
   rs.chains = r.chains();

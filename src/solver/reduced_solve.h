@@ -18,6 +18,7 @@
 #include <vector>
 
 #include "gradeline/solver.h"
+#include "hydraulics/chain_law.h"
 #include "model/topology.h"
 #include "solver/reduction.h"
 #include "solver/solver_cache.h"
@@ -36,6 +37,20 @@ struct ReductionCache {
   SolverCache core;           // the core network's own cache (plan, symbolic factorisation)
   bool matches(const Network& net, const std::vector<char>& eliminable_now) const;
 };
+
+// What the gradient method solves after the reduction: the core as a network of its own (the
+// kept nodes and links, then one link per chain, a copy of the chain's first pipe between the
+// chain's ends whose law the chain's replaces), the chain laws, and the demands gathered down
+// the branches and chains.
+struct CoreProblem {
+  Network network;
+  ChainLaws chains;
+  std::vector<double> demand_m3s;   // per core node
+  std::vector<double> carried_m3s;  // per node of the full network: own demand plus its branches
+};
+
+CoreProblem make_core_problem(const Network& network, const Reduction& reduction,
+                              const SolveOptions& options, const std::vector<double>& demand_m3s);
 
 // The solve through the reduction, or nullopt when the reduction would remove too little.
 std::optional<SolveResult> solve_reduced(const Network& network, const SolveOptions& options,
