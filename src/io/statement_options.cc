@@ -93,9 +93,10 @@ std::optional<double> StatementOptions::parse(std::string_view key_view, std::st
     error(std::string(key_view) + ": " + parsed.error);
     return std::nullopt;
   }
-  const std::string key(key_view), text(text_view);  // for the messages below
   const double v = parsed.quantity.value;
   const bool below = range.min_inclusive ? v < range.min : v <= range.min;
+  if (!below && v <= range.max) return v;
+  const std::string key(key_view), text(text_view);  // for the messages below
   if (below) {
     if (range.min == 0.0 && !range.min_inclusive) {
       error(key + " must be positive, got '" + text + "'");
@@ -106,11 +107,8 @@ std::optional<double> StatementOptions::parse(std::string_view key_view, std::st
     }
     return std::nullopt;
   }
-  if (v > range.max) {
-    error(key + " '" + text + "' is out of range: at most " + range.max_text);
-    return std::nullopt;
-  }
-  return v;
+  error(key + " '" + text + "' is out of range: at most " + range.max_text);
+  return std::nullopt;
 }
 
 }  // namespace gradeline

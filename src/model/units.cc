@@ -104,8 +104,8 @@ const char* default_unit(Dimension d, UnitSystem s) {
 bool equal_ignoring_case(std::string_view a, const char* lower) {
   std::size_t i = 0;
   for (; i < a.size(); ++i) {
-    if (lower[i] == '\0' ||
-        std::tolower(static_cast<unsigned char>(a[i])) != static_cast<unsigned char>(lower[i])) {
+    const char c = a[i] >= 'A' && a[i] <= 'Z' ? static_cast<char>(a[i] - 'A' + 'a') : a[i];
+    if (lower[i] == '\0' || c != lower[i]) {
       return false;
     }
   }
