@@ -9,7 +9,8 @@
 // continuous and strictly increasing, which it is. Each pipe's law is odd, so a pipe that
 // points against the chain contributes the same h_i(Q - S_i) to the chain's drop.
 // Valid wherever the pipe laws are (Darcy-Weisbach over every regime, Hazen-Williams).
-// Reference: Giustolisi, Laucelli, Berardi & Savic (2012), J. Hydraul. Eng. 138(4), 321-330.
+// Reference: Giustolisi, Laucelli, Berardi & Savic (2012), J. Hydraul. Eng. 138(4) (details from
+// memory; see docs/solver.md).
 #pragma once
 
 #include <cstdint>

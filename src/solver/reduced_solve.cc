@@ -186,7 +186,8 @@ void expand_trees(const Network& net, const Reduction& r, const SolveOptions& op
 }
 
 // Spreads the core solution over the full network and recomputes the residuals there.
-SolveResult expand(const Network& net, const Reduction& r, const SolveOptions& options,
+SolveResult expand(const Network& net, const Topology& topology, const Reduction& r,
+                   const SolveOptions& options,
                    const std::vector<double>& demand, const std::vector<double>& carried_m3s, ChainLaws* chains,
                    SolveResult&& core) {
   SolveResult out;
@@ -209,8 +210,8 @@ SolveResult expand(const Network& net, const Reduction& r, const SolveOptions& o
   // eliminated link (the kept links keep the core's, which account for valve settings).
   std::vector<double> balance(net.nodes.size(), 0.0);
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    balance[net.pipes[k].from] -= out.links[k].flow_m3s;
-    balance[net.pipes[k].to] += out.links[k].flow_m3s;
+    balance[topology.from[k]] -= out.links[k].flow_m3s;
+    balance[topology.to[k]] += out.links[k].flow_m3s;
   }
   auto energy = [&](std::uint32_t k) {
     LinkState& ls = out.links[k];
@@ -303,7 +304,7 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
                                                 &p.chains);
   cache->analyses += rc.core.analyses - analyses_before; 
   SolveResult out =
-      expand(net, r, options, demand, p.carried_m3s, &p.chains, std::move(core_result));
+      expand(net, rc.topology, r, options, demand, p.carried_m3s, &p.chains, std::move(core_result));
   ReductionSummary& rs = out.summary.reduction;
   rs.applied = true;
   rs.core_junctions = 0;

@@ -1,7 +1,6 @@
 // Topological reduction of a network before the gradient method, exact, in the manner of the
-// enhanced global gradient algorithm (Giustolisi, Laucelli, Berardi & Savic 2012, "Computationally
-// efficient modeling method for large water network analysis", J. Hydraul. Eng. 138(4); and
-// Simpson, Elhay & Alexander 2014 on forest-core partitioning, J. Hydraul. Eng. 140(4)).
+// enhanced global gradient algorithm (Giustolisi, Laucelli, Berardi & Savic 2012) and of
+// forest-core partitioning (Simpson, Elhay & Alexander 2014); references in docs/solver.md.
 //
 // Dead-end trees. A junction met by one link only is a leaf: continuity alone fixes that link's
 // flow (the leaf's demand, plus what the leaf passes on), so the leaf and its link leave the
