@@ -58,3 +58,43 @@ TEST_CASE("containers at the compact depth go on one line, and a sink receives a
   CHECK(received ==
         "{\n \"nodes\": [\n  {\"id\":\"0\",\"head_m\":1.5},\n  {\"id\":\"1\",\"head_m\":1.5}\n ]\n}\n");
 }
+
+TEST_CASE("elements formatted in continuations and appended in order give the same text") {
+  // The writer of large results formats blocks of elements apart (on several threads) and
+  // appends them; the text must be exactly what one stream writes, first element included.
+  auto element = [](JsonStream* j, int i) {
+    j->begin_object();
+    j->field("id", "N" + std::to_string(i));
+    j->field("head_m", 100.0 + i / 7.0);
+    j->end_object();
+  };
+  std::string whole;
+  {
+    JsonStream j(&whole);
+    j.set_compact_depth(3);
+    j.begin_object();
+    j.key("nodes");
+    j.begin_array();
+    for (int i = 0; i < 10; ++i) element(&j, i);
+    j.end_array();
+    j.end_object();
+  }
+  std::string joined;
+  {
+    JsonStream j(&joined);
+    j.set_compact_depth(3);
+    j.begin_object();
+    j.key("nodes");
+    j.begin_array();
+    for (int start : {0, 4, 7}) {  // three blocks: 0-3, 4-6, 7-9
+      std::string part_text;
+      JsonStream part = j.continuation(&part_text, j.container_empty());
+      for (int i = start; i < (start == 0 ? 4 : start == 4 ? 7 : 10); ++i) element(&part, i);
+      j.append_elements(part_text);
+    }
+    j.end_array();
+    j.end_object();
+  }
+  CHECK(joined == whole);
+  CHECK(nlohmann::json::parse(joined)["nodes"].size() == 10);
+}

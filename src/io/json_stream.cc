@@ -15,6 +15,22 @@ void JsonStream::flush() {
   }
 }
 
+JsonStream JsonStream::continuation(std::string* out, bool first) const {
+  JsonStream part(out);
+  part.depth_ = depth_;
+  part.compact_depth_ = compact_depth_;
+  part.first_ = first;
+  return part;
+}
+
+void JsonStream::append_elements(std::string_view text) {
+  if (text.empty()) return;
+  out_->append(text);
+  first_ = false;
+  after_key_ = false;
+  if (sink_ && out_->size() >= kSinkChunk) flush();
+}
+
 void JsonStream::separate() {
   if (after_key_) {
     after_key_ = false;

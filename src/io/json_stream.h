@@ -37,6 +37,15 @@ class JsonStream {
   void value(const char* v) { value(std::string_view(v)); }
   void null();
 
+  // A stream that continues this one's layout (depth, compactness) into `out`, as if the
+  // container open here were empty when `first` is true and not otherwise: elements formatted
+  // there (on another thread, say) and appended in order with append_elements() give exactly
+  // the text this stream would have written itself.
+  JsonStream continuation(std::string* out, bool first) const;
+  void append_elements(std::string_view text);
+  // True when the container open here has no element yet.
+  bool container_empty() const { return first_; }
+
   template <typename T>
   void field(std::string_view k, const T& v) {
     key(k);

@@ -1,5 +1,7 @@
 #include "io/result_json.h"
 
+#include <algorithm>
+
 #include "report/pump_point.h"
 #include "report/result_totals.h"
 
@@ -44,6 +46,35 @@ void write_summary(const Network& net, const SolveResult& r, JsonStream* j) {
   j->end_object();
 }
 
+// Elements below this count are written in turn; above, in blocks formatted on every core and
+// appended in order, so the text is the same either way.
+constexpr std::size_t kParallelElements = 50000;
+constexpr std::size_t kElementBlock = 8192;
+constexpr std::size_t kBlocksAtOnce = 8;
+
+template <typename WriteOne>
+void write_elements(JsonStream* j, std::size_t count, const WriteOne& write_one) {
+  if (count < kParallelElements) {
+    for (std::size_t i = 0; i < count; ++i) write_one(j, i);
+    return;
+  }
+  const std::size_t blocks = (count + kElementBlock - 1) / kElementBlock;
+  std::vector<std::string> text(kBlocksAtOnce);
+  for (std::size_t first = 0; first < blocks; first += kBlocksAtOnce) {
+    const std::ptrdiff_t batch = static_cast<std::ptrdiff_t>(std::min(kBlocksAtOnce, blocks - first));
+    const bool empty = j->container_empty();
+#pragma omp parallel for schedule(static)
+    for (std::ptrdiff_t b = 0; b < batch; ++b) {
+      text[b].clear();
+      JsonStream part = j->continuation(&text[b], empty && b == 0);
+      const std::size_t begin = (first + static_cast<std::size_t>(b)) * kElementBlock;
+      const std::size_t end = std::min(count, begin + kElementBlock);
+      for (std::size_t i = begin; i < end; ++i) write_one(&part, i);
+    }
+    for (std::ptrdiff_t b = 0; b < batch; ++b) j->append_elements(text[b]);
+  }
+}
+
 }  // namespace
 
 void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
@@ -52,7 +83,7 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
   write_summary(net, r, j);
   j->key("nodes");
   j->begin_array();
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+  write_elements(j, net.nodes.size(), [&](JsonStream* j, std::size_t n) {
     const Node& node = net.nodes[n];
     const NodeState& ns = r.nodes[n];
     j->begin_object();
@@ -71,11 +102,11 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
     j->field("demand_m3s", ns.demand_m3s);
     j->field("supplied", ns.supplied);
     j->end_object();
-  }
+  });
   j->end_array();
   j->key("links");
   j->begin_array();
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+  write_elements(j, net.pipes.size(), [&](JsonStream* j, std::size_t k) {
     const Pipe& p = net.pipes[k];
     const LinkState& ls = r.links[k];
     j->begin_object();
@@ -108,7 +139,7 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
       j->field("mode", ls.open ? "open" : "closed");
     }
     j->end_object();
-  }
+  });
   j->end_array();
   if (more) more(j);
   j->end_object();
