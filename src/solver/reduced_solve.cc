@@ -46,25 +46,29 @@ void gather_demands(const Network& net, const Reduction& r, const std::vector<do
 void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions& options,
                      ChainLaws* chains) {
   chains->start.assign(r.chain_start.begin(), r.chain_start.end());
-  chains->law.clear();
-  chains->law.reserve(r.member_link.size());
-  for (std::uint32_t k : r.member_link) {
-    chains->law.push_back(
-        make_pipe_law(net.pipes[k], net.headloss, net.fluid, options.hw_regularisation_flow_m3s));
+  chains->law.resize(r.member_link.size());
+  const std::ptrdiff_t members = static_cast<std::ptrdiff_t>(r.member_link.size());
+#pragma omp parallel for schedule(static) if (members >= kParallelChains)
+  for (std::ptrdiff_t i = 0; i < members; ++i) {
+    chains->law[i] = make_pipe_law(net.pipes[r.member_link[i]], net.headloss, net.fluid,
+                                   options.hw_regularisation_flow_m3s);
   }
   chains->colebrook_x.assign(r.member_link.size(), 0.0);
   chains->sign.assign(r.member_sign.begin(), r.member_sign.end());
 }
 
-// The core network (see CoreProblem). Only what the solver reads is copied: no source locations, categories or coordinates, and a
-// pump curve only for pumps.
+// The core network (see CoreProblem). Only what the solver reads is copied: no source
+// locations, categories or coordinates, and a pump curve only for pumps.
 Network core_network(const Network& net, const Reduction& r) {
+  // Elements are copied on every core on large networks; each writes only its own slot.
   Network core;
   core.units = net.units;
   core.headloss = net.headloss;
   core.fluid = net.fluid;
   core.nodes.resize(r.core_nodes.size());
-  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) {
+  const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(r.core_nodes.size());
+#pragma omp parallel for schedule(static) if (nodes >= kParallelChains)
+  for (std::ptrdiff_t c = 0; c < nodes; ++c) {
     const Node& n = net.nodes[r.core_nodes[c]];
     Node& m = core.nodes[c];
     m.id = n.id;
@@ -100,13 +104,18 @@ Network core_network(const Network& net, const Reduction& r) {
     q.valve_flow_m3s = p.valve_flow_m3s;
     q.valve_loss_m = p.valve_loss_m;
   };
-  for (std::size_t i = 0; i < r.kept_links.size(); ++i) {
-    const std::uint32_t k = r.kept_links[i];
-    copy(i, k, static_cast<std::uint32_t>(net.pipes[k].from),
-         static_cast<std::uint32_t>(net.pipes[k].to));
-  }
-  for (std::size_t c = 0; c < r.chains(); ++c) {
-    copy(r.kept_links.size() + c, r.member_link[r.chain_start[c]], r.chain_from[c], r.chain_to[c]);
+  const std::ptrdiff_t kept = static_cast<std::ptrdiff_t>(r.kept_links.size());
+  const std::ptrdiff_t links = kept + static_cast<std::ptrdiff_t>(r.chains());
+#pragma omp parallel for schedule(static) if (links >= kParallelChains)
+  for (std::ptrdiff_t i = 0; i < links; ++i) {
+    if (i < kept) {
+      const std::uint32_t k = r.kept_links[i];
+      copy(i, k, static_cast<std::uint32_t>(net.pipes[k].from),
+           static_cast<std::uint32_t>(net.pipes[k].to));
+    } else {
+      const std::size_t c = static_cast<std::size_t>(i - kept);
+      copy(i, r.member_link[r.chain_start[c]], r.chain_from[c], r.chain_to[c]);
+    }
   }
   return core;
 }
@@ -194,16 +203,25 @@ SolveResult expand(const Network& net, const Topology& topology, const Reduction
   out.summary = std::move(core.summary);
   out.nodes.resize(net.nodes.size());
   out.links.resize(net.pipes.size());
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    out.nodes[n].demand_m3s = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
+  const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(net.nodes.size());
+  const std::ptrdiff_t core_nodes = static_cast<std::ptrdiff_t>(r.core_nodes.size());
+  const std::ptrdiff_t kept = static_cast<std::ptrdiff_t>(r.kept_links.size());
+#pragma omp parallel if (nodes >= kParallelChains)
+  {
+#pragma omp for schedule(static)
+    for (std::ptrdiff_t n = 0; n < nodes; ++n) {
+      out.nodes[n].demand_m3s = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
+    }
+#pragma omp for schedule(static)
+    for (std::ptrdiff_t c = 0; c < core_nodes; ++c) {
+      NodeState& ns = out.nodes[r.core_nodes[c]];
+      const double d = ns.demand_m3s;
+      ns = core.nodes[c];
+      ns.demand_m3s = d;
+    }
+#pragma omp for schedule(static) nowait
+    for (std::ptrdiff_t i = 0; i < kept; ++i) out.links[r.kept_links[i]] = core.links[i];
   }
-  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) {
-    NodeState& ns = out.nodes[r.core_nodes[c]];
-    const double d = ns.demand_m3s;
-    ns = core.nodes[c];
-    ns.demand_m3s = d;
-  }
-  for (std::size_t i = 0; i < r.kept_links.size(); ++i) out.links[r.kept_links[i]] = core.links[i];
   expand_chains(net, r, core, chains, &out);
   expand_trees(net, r, options, carried_m3s, &out); 
   // Residuals on the full network: continuity at every supplied junction, energy on every
