@@ -36,8 +36,15 @@ bool eliminated(const Network& net, const Reduction& r, const char* node) {
   return r.core_of_node[*net.find_node(node)] == kEliminated;
 }
 
-SolveResult solve_with(const Network& net, bool reduce, const std::vector<double>& demand) {
+// Reduction on whatever the network's size (by default small networks are solved unreduced).
+SolveOptions reducing() {
   SolveOptions o;
+  o.reduction_min_nodes = 0;
+  return o;
+}
+
+SolveResult solve_with(const Network& net, bool reduce, const std::vector<double>& demand) {
+  SolveOptions o = reducing();
   o.topological_reduction = reduce;
   return solve(net, o, demand);
 }
@@ -155,7 +162,7 @@ TEST_CASE("branches and chains with demands match scipy in every case") {
   REQUIRE(in.good());
   const nlohmann::json ref = nlohmann::json::parse(in);
   auto compare = [&](const nlohmann::json& expected, const std::vector<double>& demand) {
-    SolveResult r = solve(net, SolveOptions{}, demand);
+    SolveResult r = solve(net, reducing(), demand);
     REQUIRE_MESSAGE(r.summary.converged(), r.summary.message);
     CHECK(r.summary.reduction.applied);
     CHECK(r.summary.reduction.core_junctions == 4);
@@ -240,14 +247,21 @@ TEST_CASE("a branch and a chain cut off by a closed pipe are unsupplied, as with
 TEST_CASE("a session keeps one reduction and one analysis across cases, and warm starts map onto chains") {
   Network net = testing::load("tests/networks/branches_chains.gln");
   SolverSession session;
-  const SolveResult first = session.solve(net, {}, case_demands(net, net.cases[0]));
+  const SolveResult first = session.solve(net, reducing(), case_demands(net, net.cases[0]));
   REQUIRE(first.summary.converged());
+  REQUIRE(first.summary.reduction.applied);
   std::vector<double> flows;
   for (const LinkState& l : first.links) flows.push_back(l.flow_m3s);
-  const SolveResult again = session.solve(net, {}, case_demands(net, net.cases[0]), &flows);
+  const SolveResult again = session.solve(net, reducing(), case_demands(net, net.cases[0]), &flows);
   REQUIRE(again.summary.converged());
   CHECK(again.summary.iterations <= 1);
-  const SolveResult other = session.solve(net, {}, case_demands(net, net.cases[1]), &flows);
+  const SolveResult other = session.solve(net, reducing(), case_demands(net, net.cases[1]), &flows);
   REQUIRE(other.summary.converged());
   CHECK(session.symbolic_analyses() == 1);
+}
+
+TEST_CASE("small networks are solved unreduced unless asked") {
+  Network net = testing::load("tests/networks/branches_chains.gln");
+  CHECK_FALSE(solve(net).summary.reduction.applied);
+  CHECK(solve(net, reducing()).summary.reduction.applied);
 }

@@ -484,6 +484,7 @@ std::string SolveOptions::validate() const {
   if (!(continuity_tolerance_m3s > 0.0)) return "continuity_tolerance_m3s must be positive";
   if (max_step_halvings < 0 || max_step_halvings > 60) return "max_step_halvings must be in 0..60";
   if (!(hw_regularisation_flow_m3s > 0.0)) return "hw_regularisation_flow_m3s must be positive";
+  if (reduction_min_nodes < 0) return "reduction_min_nodes must not be negative";
   return "";
 }
 
@@ -506,7 +507,8 @@ SolveResult solve_with_cache(const Network& network, const SolveOptions& options
     r.summary.message = invalid;
     return r;
   }
-  if (options.topological_reduction) {
+  if (options.topological_reduction &&
+      network.nodes.size() >= static_cast<std::size_t>(options.reduction_min_nodes)) {
     std::optional<SolveResult> reduced =
         solve_reduced(network, options, demand_m3s, cache, initial_flows);
     if (reduced) return std::move(*reduced);
