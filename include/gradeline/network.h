@@ -166,8 +166,8 @@ struct Network {
   void prefetch_node_element(std::string_view id) const {
     node_index_.prefetch_element(id, [this](std::size_t i) {
       const char* p = reinterpret_cast<const char*>(&nodes[i]);
-      __builtin_prefetch(p);
-      __builtin_prefetch(p + 32);
+      prefetch_address(p);
+      prefetch_address(p + 32);
     });
   }
   // Rebuilds the ID lookup tables; call after editing `nodes` or `pipes` directly.
