@@ -26,6 +26,19 @@ Topology build_topology(const Network& net) {
   return t;
 }
 
+Topology build_link_ends(const Network& net) {
+  Topology t;
+  t.from.resize(net.pipes.size());
+  t.to.resize(net.pipes.size());
+  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    t.from[k] = static_cast<std::uint32_t>(net.pipes[k].from);
+    t.to[k] = static_cast<std::uint32_t>(net.pipes[k].to);
+  }
+  t.fixed_head.resize(net.nodes.size());
+  for (std::size_t i = 0; i < net.nodes.size(); ++i) t.fixed_head[i] = net.nodes[i].is_fixed_head();
+  return t;
+}
+
 namespace {
 
 // Breadth-first labelling from the seeds in `queue`, marking reached nodes with `label`.

@@ -22,6 +22,9 @@ struct Topology {
 };
 
 Topology build_topology(const Network& network);
+// Only the flat link ends and fixed-head flags (offsets and links left empty), for passes that
+// need no incidence lists.
+Topology build_link_ends(const Network& network);
 
 // supplied[n] is 1 when node n reaches a fixed-head node through links whose link_open is 1.
 std::vector<char> find_supplied(const Network& network, const Topology& topology,

@@ -294,7 +294,7 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
   std::vector<char> eliminable = eliminable_links(net);
   if (!cache->reduction || !cache->reduction->matches(net, eliminable)) {
     auto rc = std::make_shared<ReductionCache>();
-    rc->topology = build_topology(net);
+    rc->topology = build_link_ends(net);
     rc->reduction = reduce_topology(net, rc->topology, eliminable);
     rc->eliminable = std::move(eliminable);
     rc->worthwhile = rc->reduction.eliminated_nodes() > 0 &&

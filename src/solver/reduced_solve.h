@@ -30,7 +30,7 @@ inline constexpr double kMinReducedShare = 0.01;
 
 // Kept in SolverCache between solves of one network shape.
 struct ReductionCache {
-  Topology topology;          // of the full network
+  Topology topology;          // link ends of the full network (no incidence lists)
   std::vector<char> eliminable;
   Reduction reduction;
   bool worthwhile = false;

@@ -59,6 +59,7 @@ struct Reduction {
 // check valve, between two different nodes, neither of them a tank.
 std::vector<char> eliminable_links(const Network& network);
 
+// Reads only the link ends and fixed-head flags of `topology` (build_link_ends suffices).
 Reduction reduce_topology(const Network& network, const Topology& topology,
                           const std::vector<char>& eliminable);
 
