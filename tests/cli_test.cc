@@ -155,6 +155,26 @@ TEST_CASE("JSON of several cases nests them and lists the violations in SI") {
   CHECK(v["value"].get<double>() < v["limit"].get<double>());
 }
 
+TEST_CASE("--case all, each case started from the last one's flows, gives each case's own solution") {
+  // The warm start changes only where the Newton iterations begin: every head must agree with
+  // a run of that case alone to within the solver's tolerances.
+  constexpr double kSameHead_m = 1e-7;
+  const std::string all = temp_dir() + "/all.json", one = temp_dir() + "/one.json";
+  REQUIRE(run_gradeline("solve networks/brindlemoor.gln --case all --summary --json " + all).exit_code == 1);
+  REQUIRE(run_gradeline("solve networks/brindlemoor.gln --case fire_E13 --summary --json " + one).exit_code == 1);
+  std::ifstream a(all), b(one);
+  const nlohmann::json ja = nlohmann::json::parse(a), jb = nlohmann::json::parse(b);
+  const auto& nodes_all = ja["cases"]["fire_E13"]["nodes"];
+  const auto& nodes_one = jb["nodes"];
+  REQUIRE(nodes_all.size() == nodes_one.size());
+  for (std::size_t i = 0; i < nodes_one.size(); ++i) {
+    CAPTURE(nodes_one[i]["id"]);
+    if (nodes_one[i]["head_m"].is_null()) continue;
+    CHECK(std::abs(nodes_all[i]["head_m"].get<double>() - nodes_one[i]["head_m"].get<double>()) <
+          kSameHead_m);
+  }
+}
+
 TEST_CASE("compare: before and after columns equal two separate solve runs") {
   const std::string dir = temp_dir();
   auto cmp = run_gradeline("compare networks/brindlemoor.gln --apply networks/brindlemoor_fire_mains.chg "
@@ -173,9 +193,12 @@ TEST_CASE("compare: before and after columns equal two separate solve runs") {
   for (const auto& n : ja["nodes"]) pa[n["id"]] = n["pressure_kPa"].get<double>();
   const auto& nodes = jc["cases"]["fire_E13"]["nodes"];
   CHECK(nodes.size() == 28);
+  // The after side starts from the before side's flows, so it may stop at another point within
+  // the solver's tolerances (1e-8 m of energy residual): a millionth of a kPa is far beyond that.
+  constexpr double kSamePressure_kPa = 1e-6;
   for (const auto& n : nodes) {
     CHECK(n["before_pressure_kPa"].get<double>() == pb[n["id"]]);
-    CHECK(n["after_pressure_kPa"].get<double>() == pa[n["id"]]);
+    CHECK(std::abs(n["after_pressure_kPa"].get<double>() - pa[n["id"]]) < kSamePressure_kPa);
   }
   CHECK(jc["cases"]["fire_E13"]["fixed"] == nlohmann::json::array({"E13"}));
   CHECK(jc["cases"]["fire_E13"]["newly_failing"].empty());

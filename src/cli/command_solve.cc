@@ -10,6 +10,7 @@
 #include "cli/commands.h"
 #include "io/network_writer.h"
 #include "io/result_json.h"
+#include "model/demand_cases.h"
 #include "report/criteria_report.h"
 #include "report/text_report.h"
 
@@ -68,6 +69,15 @@ void cases_json(const Network& net, const std::vector<CaseOutcome>& outcomes, Js
   j.end_object();
 }
 
+// Sum of the demands of the junctions (m^3/s).
+double total_demand(const Network& net, const std::vector<double>& demand_m3s) {
+  double total = 0.0;
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    if (!net.nodes[n].is_fixed_head()) total += demand_m3s[n];
+  }
+  return total;
+}
+
 int run_solve(const SolveArgs& a, Streams io) {
   auto start = std::chrono::steady_clock::now();
   Network net;
@@ -90,9 +100,24 @@ int run_solve(const SolveArgs& a, Streams io) {
   }
   std::vector<CaseOutcome> outcomes;
   SolverSession session;  // the cases share one symbolic analysis
+  // Each case starts from the last solved case's flows, scaled by the ratio of their total
+  // demands (exact in branches when a case scales every demand alike).
+  std::vector<double> previous_flows, start_flows;
+  double previous_demand = 0.0;
   for (const DemandCase& c : cases) {
-    outcomes.push_back(run_case(net, c, a.flags.options(), criteria, &session));
+    const double demand = total_demand(net, case_demands(net, c));
+    start_flows = previous_flows;
+    if (previous_demand > 0.0 && demand > 0.0) {
+      for (double& q : start_flows) q *= demand / previous_demand;
+    }
+    outcomes.push_back(run_case(net, c, a.flags.options(), criteria, &session,
+                                start_flows.empty() ? nullptr : &start_flows));
     const SolveSummary& s = outcomes.back().result.summary;
+    if (s.converged()) {
+      previous_flows.clear();
+      for (const LinkState& l : outcomes.back().result.links) previous_flows.push_back(l.flow_m3s);
+      previous_demand = demand;
+    }
     if (a.timing) io.err << timing_text(s, parse_s);
     if (!s.converged()) {
       io.err << solve_summary_text(net, outcomes.back().result, a.file, c.name);
