@@ -243,21 +243,33 @@ SolveResult expand(const Network& net, const Topology& topology, const Reduction
   s.max_continuity_residual_m3s = s.max_energy_residual_m = 0.0;
   s.worst_continuity_node = s.worst_energy_link = 0;
   s.unsupplied_nodes = 0;
+  bool finite = true;
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
     NodeState& ns = out.nodes[n];
     if (!ns.supplied) ++s.unsupplied_nodes;
     const bool counts = !net.nodes[n].is_fixed_head() && ns.supplied;
     ns.continuity_residual_m3s = counts ? balance[n] - demand[n] : 0.0;
+    if (counts && !(std::isfinite(ns.head_m) && std::isfinite(ns.continuity_residual_m3s))) {
+      finite = false;
+    }
     if (std::abs(ns.continuity_residual_m3s) > s.max_continuity_residual_m3s) {
       s.max_continuity_residual_m3s = std::abs(ns.continuity_residual_m3s);
       s.worst_continuity_node = n;
     }
   }
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    if (std::abs(out.links[k].energy_residual_m) > s.max_energy_residual_m) {
-      s.max_energy_residual_m = std::abs(out.links[k].energy_residual_m);
+    const LinkState& ls = out.links[k];
+    if (!std::isfinite(ls.energy_residual_m) || !std::isfinite(ls.flow_m3s)) finite = false;
+    if (std::abs(ls.energy_residual_m) > s.max_energy_residual_m) {
+      s.max_energy_residual_m = std::abs(ls.energy_residual_m);
       s.worst_energy_link = k;
     }
+  }
+  // A branch or chain can carry what the core never saw (a pipe too narrow for any finite
+  // loss): such a state is no solution, as in an unreduced solve.
+  if (!finite && s.converged()) {
+    s.termination = Termination::kNonFinite;
+    s.message = "the state is not finite";
   }
   return out;
 }
