@@ -169,7 +169,12 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
 
 void NetworkParser::statement(const Statement& s, const std::string& file, int depth) {
   const std::string_view k = s.keyword;
-  if (k == "title") {
+  // The two statements of nearly every line first.
+  if (k == "pipe") {
+    pipe(s, file);
+  } else if (k == "node") {
+    node(s, file);
+  } else if (k == "title") {
     net_.title = s.rest;
   } else if (k == "units") {
     units(s, file);
@@ -181,10 +186,6 @@ void NetworkParser::statement(const Statement& s, const std::string& file, int d
     defaults(s, file);
   } else if (k == "reservoir") {
     reservoir(s, file);
-  } else if (k == "node") {
-    node(s, file);
-  } else if (k == "pipe") {
-    pipe(s, file);
   } else if (k == "include") {
     include(s, file, depth);
   } else if (k == "tank") {
