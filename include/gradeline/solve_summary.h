@@ -55,6 +55,8 @@ struct SolveTiming {
   double numeric_factor_s = 0.0;  // summed over iterations
   double triangular_solve_s = 0.0;
   double assembly_s = 0.0;        // friction evaluation and matrix assembly, summed
+  double reduction_s = 0.0;       // topological reduction and the core problem, before the core solve
+  double recovery_s = 0.0;        // eliminated flows and heads, and the full residuals, after it
   double total_s = 0.0;
   // Link-law evaluations: done, and reused because the link's flow had not changed.
   long long link_evaluations = 0;

@@ -37,6 +37,8 @@ std::string timing_text(const SolveSummary& s, double parse_s) {
     << "timing      link laws evaluated " << s.timing.link_evaluations << ", reused "
     << s.timing.reused_link_evaluations << " (flow unchanged since the last evaluation)\n";
   if (s.reduction.applied) {
+    t << "timing      reduction " << s.timing.reduction_s << " s, recovery " << s.timing.recovery_s
+      << " s\n";
     t << "timing      reduced to " << s.reduction.core_junctions << " junctions and "
       << s.reduction.core_links << " links: " << s.reduction.tree_links
       << " dead-end links by continuity, " << s.reduction.chain_links << " pipes in "
