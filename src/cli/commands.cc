@@ -3,6 +3,7 @@
 #include <ostream>
 
 #include "io/atomic_file.h"
+#include "io/background_writer.h"
 #include "io/change_set.h"
 #include "model/units.h"
 
@@ -68,14 +69,14 @@ bool write_json_output(const std::string& path, const std::vector<std::string>& 
     io.err << "gradeline: error: " << why << "\n";
     return false;
   }
-  bool ok = true;
   std::string buffer;
   JsonStream j(&buffer);
   j.set_compact_depth(3);  // top object, its arrays, then one line per element
-  j.set_sink([&](std::string_view text) { ok = ok && file.write(text, &why); });
+  BackgroundWriter writer(&file);
+  j.set_sink([&](std::string_view text) { writer.write(text); });
   produce(&j);
   j.flush();
-  if (!ok || !file.commit(&why)) {
+  if (!writer.finish(&why) || !file.commit(&why)) {
     io.err << "gradeline: error: " << why << "\n";
     return false;
   }
