@@ -75,3 +75,17 @@ TEST_CASE("on a network checked on every core, the first failing link in file or
   CHECK_FALSE(c.ok);
   CHECK(c.failure == "pipe 'P21001' has a non-finite flow or head loss");
 }
+
+TEST_CASE("the reported friction factor only starts the check's own Colebrook iteration") {
+  // A correct result with nonsense friction factors still passes (the loss is recomputed from
+  // the flow), and nonsense cannot hide a wrong flow.
+  Network net = testing::load("tests/networks/loop_two_sources.gln");
+  SolveResult r = solve(net);
+  REQUIRE(r.summary.converged());
+  for (LinkState& l : r.links) l.friction_factor = l.friction_factor > 0.0 ? 1e-6 : 0.0;
+  CHECK(check_result(net, testing::base_demand(net), r, {}).ok);
+  for (LinkState& l : r.links) l.friction_factor = 0.9;
+  CHECK(check_result(net, testing::base_demand(net), r, {}).ok);
+  r.links[*net.find_pipe("L3")].flow_m3s *= 1.001;
+  CHECK_FALSE(check_result(net, testing::base_demand(net), r, {}).ok);
+}

@@ -44,7 +44,13 @@ std::string link_failure(const Network& net, const SolveResult& r, const SolveOp
     }
     return "";
   }
-  const double h = evaluate_pipe(law, l.flow_m3s).headloss_m;
+  // The reported friction factor only starts the Colebrook iteration (Newton converges to the
+  // one root from any start, F being increasing and concave), so the loss is still recomputed
+  // from the flow alone, in fewer steps.
+  double x = l.regime == FlowRegime::kTurbulent && l.friction_factor > 0.0
+                 ? 1.0 / std::sqrt(l.friction_factor)
+                 : 0.0;
+  const double h = evaluate_pipe(law, l.flow_m3s, &x).headloss_m;
   const double e = h - (r.nodes[p.from].head_m - r.nodes[p.to].head_m);
   const double tolerance = kSelfCheckSlack * options.energy_tolerance_m;
   if (!(std::abs(e) <= tolerance)) {
