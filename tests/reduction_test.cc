@@ -258,6 +258,12 @@ TEST_CASE("a session keeps one reduction and one analysis across cases, and warm
   CHECK(again.summary.iterations <= 1);
   const SolveResult other = session.solve(net, reducing(), case_demands(net, net.cases[1]), &flows);
   REQUIRE(other.summary.converged());
+  // The session refreshed its kept core problem in place: the same answer as a fresh solve.
+  const SolveResult fresh = solve(net, reducing(), case_demands(net, net.cases[1]));
+  REQUIRE(fresh.summary.converged());
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    CHECK(std::abs(other.nodes[n].head_m - fresh.nodes[n].head_m) < kSameHead_m);
+  }
   CHECK(session.symbolic_analyses() == 1);
 }
 

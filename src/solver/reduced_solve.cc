@@ -57,11 +57,12 @@ void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions&
   chains->sign.assign(r.member_sign.begin(), r.member_sign.end());
 }
 
-// The core network (see CoreProblem). Only what the solver reads is copied: no source
-// locations, categories or coordinates, and a pump curve only for pumps.
-Network core_network(const Network& net, const Reduction& r) {
+// The core network (see CoreProblem), written over `core`: a session's next solve of the same
+// shape refreshes the elements in place, with no allocation. Only what the solver reads is
+// copied: no source locations, categories or coordinates, and a pump curve only for pumps.
+void fill_core_network(const Network& net, const Reduction& r, Network* out) {
   // Elements are copied on every core on large networks; each writes only its own slot.
-  Network core;
+  Network& core = *out;
   core.units = net.units;
   core.headloss = net.headloss;
   core.fluid = net.fluid;
@@ -97,7 +98,7 @@ Network core_network(const Network& net, const Reduction& r) {
     q.status = p.status;
     q.check_valve = p.check_valve;
     q.resizable = p.resizable;
-    if (p.is_pump()) q.curve = p.curve;
+    if (p.is_pump() || !q.curve.points.empty()) q.curve = p.curve;
     q.speed = p.speed;
     q.efficiency = p.efficiency;
     q.valve_head_m = p.valve_head_m;
@@ -117,7 +118,6 @@ Network core_network(const Network& net, const Reduction& r) {
       copy(i, r.member_link[r.chain_start[c]], r.chain_from[c], r.chain_to[c]);
     }
   }
-  return core;
 }
 
 void set_node(const Network& net, std::size_t n, double head_m, bool supplied, NodeState* ns) {
@@ -276,12 +276,17 @@ SolveResult expand(const Network& net, const Topology& topology, const Reduction
 
 }  // namespace
 
+void make_core_problem(const Network& net, const Reduction& r, const SolveOptions& options,
+                       const std::vector<double>& demand, CoreProblem* p) {
+  make_chain_laws(net, r, options, &p->chains);
+  gather_demands(net, r, demand, p);
+  fill_core_network(net, r, &p->network);
+}
+
 CoreProblem make_core_problem(const Network& net, const Reduction& r, const SolveOptions& options,
                               const std::vector<double>& demand) {
   CoreProblem p;
-  make_chain_laws(net, r, options, &p.chains);
-  gather_demands(net, r, demand, &p);
-  p.network = core_network(net, r);
+  make_core_problem(net, r, options, demand, &p);
   return p;
 }
 
@@ -317,7 +322,8 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
   if (!rc.worthwhile) return std::nullopt;
   const Reduction& r = rc.reduction;
 
-  CoreProblem p = make_core_problem(net, r, options, demand);
+  CoreProblem& p = rc.problem;  // kept for the session's next solve of this shape
+  make_core_problem(net, r, options, demand, &p);
   std::vector<double> core_initial;
   if (initial_flows && initial_flows->size() == net.pipes.size()) {
     core_initial.reserve(p.network.pipes.size());

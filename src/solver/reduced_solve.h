@@ -28,16 +28,6 @@ namespace gradeline {
 // Eliminated nodes as a share of all nodes below which the reduction is not worth a copy.
 inline constexpr double kMinReducedShare = 0.01;
 
-// Kept in SolverCache between solves of one network shape.
-struct ReductionCache {
-  Topology topology;          // link ends of the full network (no incidence lists)
-  std::vector<char> eliminable;
-  Reduction reduction;
-  bool worthwhile = false;
-  SolverCache core;           // the core network's own cache (plan, symbolic factorisation)
-  bool matches(const Network& net, const std::vector<char>& eliminable_now) const;
-};
-
 // What the gradient method solves after the reduction: the core as a network of its own (the
 // kept nodes and links, then one link per chain, a copy of the chain's first pipe between the
 // chain's ends whose law the chain's replaces), the chain laws, and the demands gathered down
@@ -49,8 +39,23 @@ struct CoreProblem {
   std::vector<double> carried_m3s;  // per node of the full network: own demand plus its branches
 };
 
+// Kept in SolverCache between solves of one network shape.
+struct ReductionCache {
+  Topology topology;          // link ends of the full network (no incidence lists)
+  std::vector<char> eliminable;
+  Reduction reduction;
+  bool worthwhile = false;
+  SolverCache core;           // the core network's own cache (plan, symbolic factorisation)
+  CoreProblem problem;        // the last core problem, refreshed in place by the next solve
+  bool matches(const Network& net, const std::vector<char>& eliminable_now) const;
+};
+
 CoreProblem make_core_problem(const Network& network, const Reduction& reduction,
                               const SolveOptions& options, const std::vector<double>& demand_m3s);
+// The same written over `problem`, reusing its storage when it holds a problem of this shape.
+void make_core_problem(const Network& network, const Reduction& reduction,
+                       const SolveOptions& options, const std::vector<double>& demand_m3s,
+                       CoreProblem* problem);
 
 // The solve through the reduction, or nullopt when the reduction would remove too little.
 std::optional<SolveResult> solve_reduced(const Network& network, const SolveOptions& options,
