@@ -447,8 +447,12 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     ls.valve_mode = valves_.mode(k);
     ls.energy_residual_m = link_res[k];
     if (!active_[k]) continue;
-    LinkEval e = evaluate_link(k, s.flow[k]);
     ls.flow_m3s = s.flow[k];
+    if (k >= first_chain_) {  // a chain: its pipes are reported by the recovery, not here
+      ls.headloss_m = headloss_[k];
+      continue;
+    }
+    LinkEval e = evaluate_pipe(laws_[k], s.flow[k], &colebrook_x_[k]);
     ls.velocity_ms = laws_[k].pump ? 0.0 : s.flow[k] / laws_[k].area_m2;
     ls.headloss_m = valves_.active(k) ? s.head[net_.pipes[k].from] - s.head[net_.pipes[k].to]
                                       : e.headloss_m;
