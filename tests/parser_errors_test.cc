@@ -14,10 +14,17 @@ namespace {
 const char* kHead = "reservoir R head=50\nnode A elevation=0\n";  // lines 1-2
 
 // All messages for `text`, one per line.
-std::string errors_of(const std::string& text) {
-  ParseResult r = parse_network_text(text, "net.gln");
+std::string messages(const ParseResult& r) {
   std::string out;
   for (const Diagnostic& d : r.errors) out += d.format() + "\n";
+  return out;
+}
+
+// Read line by line, and checked to come out the same when the node and pipe lines are read
+// in bulk (io/bulk_reader.h: any error sends the bulk read back to line by line).
+std::string errors_of(const std::string& text) {
+  const std::string out = messages(parse_network_text(text, "net.gln", static_cast<std::size_t>(-1)));
+  CHECK(messages(parse_network_text(text, "net.gln", 1)) == out);
   return out;
 }
 

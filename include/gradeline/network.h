@@ -178,7 +178,9 @@ struct Network {
   // element as they were.
   std::optional<std::size_t> try_add_node(Node&& node);
   std::optional<std::size_t> try_add_pipe(Pipe&& pipe);
-  // Adds pipes[k], already in `pipes`, to the ID lookup unless its ID is taken (then false).
+  // Adds nodes[k] / pipes[k], already in place, to the ID lookup unless the ID is taken (then
+  // false).
+  bool try_index_node(std::size_t k);
   bool try_index_pipe(std::size_t k);
   void reserve(std::size_t nodes, std::size_t pipes);
 

@@ -9,8 +9,9 @@
 #include <fstream>
 #include <sstream>
 
-#include "io/lexer.h"
+#include "io/bulk_reader.h"
 #include "io/element_reader.h"
+#include "io/lexer.h"
 #include "io/statement_options.h"
 #include "model/water.h"
 
@@ -50,14 +51,23 @@ struct PendingReservoir {
   PendingPressure pressure;
 };
 
+constexpr std::size_t kNoSlot = static_cast<std::size_t>(-1);
+
 class NetworkParser {
  public:
+  // Files of at least `bulk_from_lines` lines may be read in bulk (io/bulk_reader.h).
+  explicit NetworkParser(std::size_t bulk_from_lines) : bulk_from_lines_(bulk_from_lines) {}
   void parse_file(const std::string& path, int depth, const std::string& from_file,
                   int from_line);
   void parse_text(std::string_view text, const std::string& file, int depth);
   ParseResult finish();
+  // The bulk read met something it does not handle: read the input again line by line.
+  bool needs_line_by_line() const { return fall_back_; }
 
  private:
+  void read_lines(const std::vector<std::string_view>& lines, const std::string& file, int depth);
+  void read_placed(const std::vector<std::string_view>& lines, const LineKinds& kinds,
+                   const std::string& file);
   void statement(const Statement& s, const std::string& file, int depth);
   void units(const Statement& s, const std::string& file);
   void headloss(const Statement& s, const std::string& file);
@@ -87,12 +97,23 @@ class NetworkParser {
   Network net_;
   // Links are placed in net_.pipes as read, with what they leave to settle in ends_ (the IDs
   // view texts_, kept until finish()); they join the ID lookup there, in file order.
+  // While elements are placed (a bulk read), a link goes to the slot of its line.
   void stage(std::optional<PipeRead>&& p, const Statement& s) {
     if (!p) return;
-    ends_.push_back(ends_of(*p));
-    ends_.back().from_id = s.positional[1];  // the same IDs, viewed in the text
-    ends_.back().to_id = s.positional[2];
-    net_.pipes.push_back(std::move(p->pipe));
+    if (placing_ && place_link_ == kNoSlot) {
+      fall_back_ = true;
+      return;
+    }
+    PipeEnds& ends = placing_ ? ends_[place_link_] : ends_.emplace_back();
+    ends = ends_of(*p);
+    ends.from_id = s.positional[1];  // the same IDs, viewed in the text
+    ends.to_id = s.positional[2];
+    if (placing_) {
+      net_.pipes[place_link_] = std::move(p->pipe);
+      place_link_ = kNoSlot;
+    } else {
+      net_.pipes.push_back(std::move(p->pipe));
+    }
   }
   std::vector<PipeEnds> ends_;
   std::deque<std::string> texts_;
@@ -108,6 +129,13 @@ class NetworkParser {
   std::optional<double> fluid_viscosity_;
   std::string last_file_;
   int last_line_ = 1;
+  // Bulk reading: elements are placed in the slots of their lines, not appended.
+  std::size_t bulk_from_lines_;
+  bool placing_ = false;
+  std::size_t place_node_ = kNoSlot;  // the slot of the node-like line being read
+  std::size_t place_link_ = kNoSlot;
+  bool fall_back_ = false;
+  bool bulk_read_ = false;
 };
 
 void NetworkParser::parse_file(const std::string& path, int depth, const std::string& from_file,
@@ -135,24 +163,26 @@ void NetworkParser::parse_file(const std::string& path, int depth, const std::st
 }
 
 void NetworkParser::parse_text(std::string_view text, const std::string& file, int depth) {
-  std::vector<std::string_view> lines = split_lines(text);
+  const std::vector<std::string_view> lines = split_lines(text);
+  const LineKinds kinds = classify_lines(lines);
   if (depth == 0) {
     // Room for the elements this file declares, counted by first word (includes may add more).
-    std::size_t node_lines = 0, link_lines = 0;
-    for (std::string_view line : lines) {
-      while (!line.empty() && (line.front() == ' ' || line.front() == '\t')) line.remove_prefix(1);
-      const std::string_view word = line.substr(0, line.find_first_of(" \t"));
-      if (word == "node" || word == "reservoir" || word == "tank") ++node_lines;
-      if (word == "pipe" || word == "pump" || word == "valve") ++link_lines;
-    }
-    net_.reserve(node_lines, link_lines);
-    ends_.reserve(link_lines);
-  }
-  if (depth == 0) {
+    net_.reserve(kinds.node_lines, kinds.link_lines);
+    ends_.reserve(kinds.link_lines);
     last_file_ = file;
     last_line_ = std::max<int>(1, static_cast<int>(lines.size()));
   }
   file_names_.push_back(std::make_shared<const std::string>(file));
+  if (depth == 0 && lines.size() >= bulk_from_lines_ && kinds.includes == 0) {
+    read_placed(lines, kinds, file);
+  } else {
+    read_lines(lines, file, depth);
+  }
+  file_names_.pop_back();
+}
+
+void NetworkParser::read_lines(const std::vector<std::string_view>& lines,
+                               const std::string& file, int depth) {
   Statement s;
   for (std::size_t i = 0; i < lines.size() && !diagnostics_.full(); ++i) {
     if (i + kNodeLookAhead < lines.size()) prefetch_node_slot(lines[i + kNodeLookAhead]);
@@ -164,7 +194,60 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
     }
     if (!lexed.empty) statement(s, file, depth);
   }
-  file_names_.pop_back();
+}
+
+// Every element goes to the slot of its line. The lines before the first node or pipe
+// statement are read first (they may set the units), then every node and pipe line in bulk,
+// then the rest in file order, with each node joining the ID lookup in turn. Anything out of the
+// ordinary (an error above all) sets fall_back_, and the caller reads the input line by line.
+void NetworkParser::read_placed(const std::vector<std::string_view>& lines,
+                                const LineKinds& kinds, const std::string& file) {
+  placing_ = true;
+  bulk_read_ = true;
+  std::vector<Node>& nodes = net_.nodes;
+  nodes.resize(kinds.node_lines);
+  net_.pipes.resize(kinds.link_lines);
+  ends_.resize(kinds.link_lines);
+  const std::vector<LineKind>& kind = kinds.kinds;
+  const std::size_t first = static_cast<std::size_t>(
+      std::find_if(kind.begin(), kind.end(),
+                   [](LineKind k) { return k == LineKind::kNode || k == LineKind::kPipe; }) -
+      kind.begin());
+  std::size_t next_node = 0, next_link = 0;
+  Statement s;
+  for (std::size_t i = 0; i < lines.size(); ++i) {
+    if (i == first && !read_in_bulk(lines, kinds, first, file, net_.units, &nodes, &net_.pipes,
+                                    &ends_)) {
+      fall_back_ = true;
+      return;
+    }
+    const LineKind k = kind[i];
+    if (k == LineKind::kNode) {
+      if (next_node + kNodeLookAhead < nodes.size()) {
+        net_.prefetch_node(nodes[next_node + kNodeLookAhead].id);
+      }
+      if (!net_.try_index_node(next_node++)) {
+        fall_back_ = true;  // a duplicate ID: its error comes from the reading line by line
+        return;
+      }
+      continue;
+    }
+    if (k == LineKind::kPipe) {
+      ++next_link;
+      continue;
+    }
+    place_node_ = k == LineKind::kNodeOther ? next_node++ : kNoSlot;
+    place_link_ = k == LineKind::kLinkOther ? next_link++ : kNoSlot;
+    const LexResult lexed = lex_line(lines[i], static_cast<int>(i) + 1, &s);
+    if (!lexed.error.empty()) fall_back_ = true;
+    if (!lexed.empty && !fall_back_) statement(s, file, 0);
+    // A slot left empty, or an element without one, is as much out of the ordinary as an error.
+    if (place_node_ != kNoSlot || place_link_ != kNoSlot || !diagnostics_.empty()) {
+      fall_back_ = true;
+    }
+    if (fall_back_) return;
+  }
+  placing_ = false;
 }
 
 void NetworkParser::statement(const Statement& s, const std::string& file, int depth) {
@@ -290,6 +373,17 @@ void NetworkParser::defaults(const Statement& s, const std::string& file) {
 }
 
 bool NetworkParser::add_node(Node n, std::size_t* index) {
+  if (placing_) {
+    if (place_node_ == kNoSlot) {
+      fall_back_ = true;
+      return false;
+    }
+    net_.nodes[place_node_] = std::move(n);
+    *index = place_node_;
+    place_node_ = kNoSlot;
+    if (!net_.try_index_node(*index)) fall_back_ = true;
+    return !fall_back_;
+  }
   if (auto added = net_.try_add_node(std::move(n))) {  // n is left as it was when refused
     *index = *added;
     return true;
@@ -401,6 +495,7 @@ ParseResult NetworkParser::finish() {
     error(last_file_, last_line_, "the network has no fixed-head node: add a reservoir");
   }
   ParseResult result;
+  result.bulk_read = bulk_read_;
   result.truncated = diagnostics_.full();
   result.errors = diagnostics_.errors();
   result.network = std::move(net_);
@@ -444,13 +539,24 @@ bool read_text_file(const std::string& path, std::string* text, std::string* err
 }
 
 ParseResult parse_network_file(const std::string& path) {
-  NetworkParser parser;
+  {
+    NetworkParser bulk(kBulkReadFromLines);
+    bulk.parse_file(path, 0, "", 0);
+    if (!bulk.needs_line_by_line()) return bulk.finish();
+  }
+  NetworkParser parser(kNoSlot);
   parser.parse_file(path, 0, "", 0);
   return parser.finish();
 }
 
-ParseResult parse_network_text(std::string_view text, const std::string& file_name) {
-  NetworkParser parser;
+ParseResult parse_network_text(std::string_view text, const std::string& file_name,
+                               std::size_t bulk_from_lines) {
+  {
+    NetworkParser bulk(bulk_from_lines);
+    bulk.parse_text(text, file_name, 0);
+    if (!bulk.needs_line_by_line()) return bulk.finish();
+  }
+  NetworkParser parser(kNoSlot);
   parser.parse_text(text, file_name, 0);
   return parser.finish();
 }

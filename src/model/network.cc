@@ -63,6 +63,12 @@ std::optional<std::size_t> Network::try_add_pipe(Pipe&& pipe) {
   return index;
 }
 
+bool Network::try_index_node(std::size_t k) {
+  return node_index_
+      .insert(nodes[k].id, k, [this](std::size_t i) -> std::string_view { return nodes[i].id; })
+      .second;
+}
+
 bool Network::try_index_pipe(std::size_t k) {
   return pipe_index_
       .insert(pipes[k].id, k, [this](std::size_t i) -> std::string_view { return pipes[i].id; })
