@@ -1,6 +1,10 @@
 // Splitting lines into statements.
 #include <doctest/doctest.h>
 
+#include <sstream>
+#include <string>
+#include <vector>
+
 #include "io/lexer.h"
 
 using namespace gradeline;
@@ -50,6 +54,26 @@ TEST_CASE("split_lines drops a UTF-8 byte-order mark and keeps a last line with 
   REQUIRE(lines.size() == 2);
   CHECK(lines[0] == "units SI\r");
   CHECK(lines[1] == "node A elevation=1");
+}
+
+TEST_CASE("a text of several megabytes splits into the same lines on every core") {
+  // Lines of varied length (empty ones, runs of newlines, a long one), no newline at the end;
+  // the expected lines come from std::getline, which ends lines the same way.
+  std::string text = "\xEF\xBB\xBF";
+  for (int i = 0; i < 120000; ++i) {
+    text += std::string(static_cast<std::size_t>(i % 97), static_cast<char>('a' + i % 26));
+    text += i % 1000 == 0 ? "\n\n\n" : "\n";
+  }
+  text += std::string(3000, 'z');
+  std::vector<std::string> expected;
+  std::istringstream in(text.substr(3));
+  for (std::string line; std::getline(in, line);) expected.push_back(line);
+  const std::vector<std::string_view> lines = split_lines(text);
+  REQUIRE(text.size() > (std::size_t{1} << 22));
+  REQUIRE(lines.size() == expected.size());
+  std::size_t differing = 0;
+  for (std::size_t i = 0; i < lines.size(); ++i) differing += lines[i] != expected[i];
+  CHECK(differing == 0);
 }
 
 TEST_CASE("IDs may hold unusual printable characters but no separators") {

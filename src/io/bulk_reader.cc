@@ -63,13 +63,20 @@ bool read_line(std::string_view text, std::size_t index, LineKind kind, const Re
 LineKinds classify_lines(const std::vector<std::string_view>& lines) {
   LineKinds out;
   out.kinds.resize(lines.size());
-  for (std::size_t i = 0; i < lines.size(); ++i) {
-    const LineKind k = kind_of(first_word(lines[i]));
-    out.kinds[i] = k;
-    out.node_lines += takes_node_slot(k);
-    out.link_lines += takes_link_slot(k);
-    out.includes += k == LineKind::kInclude;
+  const std::ptrdiff_t count = static_cast<std::ptrdiff_t>(lines.size());
+  std::size_t node_lines = 0, link_lines = 0, includes = 0;
+#pragma omp parallel for schedule(static) if (count >= static_cast<std::ptrdiff_t>(kBulkReadFromLines)) \
+    reduction(+ : node_lines, link_lines, includes)
+  for (std::ptrdiff_t i = 0; i < count; ++i) {
+    const LineKind k = kind_of(first_word(lines[static_cast<std::size_t>(i)]));
+    out.kinds[static_cast<std::size_t>(i)] = k;
+    node_lines += takes_node_slot(k);
+    link_lines += takes_link_slot(k);
+    includes += k == LineKind::kInclude;
   }
+  out.node_lines = node_lines;
+  out.link_lines = link_lines;
+  out.includes = includes;
   return out;
 }
 
@@ -124,6 +131,45 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
     }
   }
   return !failed.load();
+}
+
+bool settle_in_bulk(const std::vector<PipeEnds>& ends, const PipeDefaults& defaults, Network* net) {
+  std::vector<Pipe>& pipes = net->pipes;
+  const std::size_t count = pipes.size();
+  const std::size_t per_chunk = (count + kChunks - 1) / kChunks;
+  // Resolving an end is a hash lookup, mostly a cache miss on large networks: the slots a few
+  // links ahead are requested early, then the nodes they point to (as in the line-by-line
+  // reading). The lookups only read the node index, so the chunks run side by side.
+  constexpr std::size_t kAhead = 16;
+  std::atomic<bool> failed{false};
+#pragma omp parallel for schedule(static)
+  for (std::ptrdiff_t c = 0; c < static_cast<std::ptrdiff_t>(kChunks); ++c) {
+    Diagnostics diagnostics;
+    const std::size_t begin = std::min(count, static_cast<std::size_t>(c) * per_chunk);
+    const std::size_t end = std::min(count, begin + per_chunk);
+    for (std::size_t k = begin; k < end; ++k) {
+      if (k + 2 * kAhead < end) {
+        net->prefetch_node(ends[k + 2 * kAhead].from_id);
+        net->prefetch_node(ends[k + 2 * kAhead].to_id);
+      }
+      if (k + kAhead < end) {
+        net->prefetch_node_element(ends[k + kAhead].from_id);
+        net->prefetch_node_element(ends[k + kAhead].to_id);
+      }
+      bool valid = true;
+      if (!settle_pipe(&pipes[k], ends[k], defaults, *net, &diagnostics, &valid) || !valid ||
+          failed.load(std::memory_order_relaxed)) {
+        failed.store(true, std::memory_order_relaxed);
+        break;
+      }
+    }
+  }
+  if (failed.load()) return false;
+  for (std::size_t k = 0; k < count; ++k) {
+    if (k + kAhead < count) net->prefetch_pipe(pipes[k + kAhead].id);
+    if (!net->try_index_pipe(k)) return false;
+  }
+  return true;
 }
 
 }  // namespace gradeline

@@ -53,4 +53,9 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
                   std::size_t first, const std::string& file, UnitSystem units,
                   std::vector<Node>* nodes, std::vector<Pipe>* pipes, std::vector<PipeEnds>* ends);
 
+// Settles every link of `net` (settle_pipe: end nodes, defaults, checks) on every core, then
+// adds the links to the pipe ID lookup in file order. `ends` is parallel to net->pipes. False
+// when any link has an error (an unknown end, a failed check, a duplicate ID).
+bool settle_in_bulk(const std::vector<PipeEnds>& ends, const PipeDefaults& defaults, Network* net);
+
 }  // namespace gradeline

@@ -1,5 +1,8 @@
 #include "io/lexer.h"
 
+#include <algorithm>
+#include <cstring>
+
 namespace gradeline {
 namespace {
 
@@ -13,15 +16,58 @@ std::string_view trim(std::string_view s) {
 
 }  // namespace
 
+namespace {
+
+// Texts of at least this many bytes are split on every core, in this many parts.
+constexpr std::size_t kParallelSplitBytes = 1 << 20;
+constexpr std::size_t kSplitParts = 16;
+
+// Calls f(line) for every line of `text`, whose last line may lack its '\n'.
+template <typename F>
+void for_each_line(std::string_view text, F&& f) {
+  std::size_t start = 0;
+  while (start < text.size()) {
+    const void* nl = std::memchr(text.data() + start, '\n', text.size() - start);
+    const std::size_t end =
+        nl ? static_cast<std::size_t>(static_cast<const char*>(nl) - text.data()) : text.size();
+    f(text.substr(start, end - start));
+    start = end + 1;
+  }
+}
+
+}  // namespace
+
 std::vector<std::string_view> split_lines(std::string_view text) {
   if (text.substr(0, 3) == "\xEF\xBB\xBF") text.remove_prefix(3);
   std::vector<std::string_view> lines;
-  std::size_t start = 0;
-  while (start < text.size()) {
-    std::size_t end = text.find('\n', start);
-    if (end == std::string_view::npos) end = text.size();
-    lines.push_back(text.substr(start, end - start));
-    start = end + 1;
+  if (text.size() < kParallelSplitBytes) {
+    for_each_line(text, [&](std::string_view line) { lines.push_back(line); });
+    return lines;
+  }
+  // Parts of whole lines: each after the first '\n' at or beyond an even share of the bytes.
+  // Their lines are counted, then written to their place, part by part on every core.
+  std::size_t begin[kSplitParts + 1];
+  begin[0] = 0;
+  begin[kSplitParts] = text.size();
+  for (std::size_t p = 1; p < kSplitParts; ++p) {
+    const std::size_t nl = text.find('\n', p * (text.size() / kSplitParts));
+    begin[p] = std::max(begin[p - 1], nl == std::string_view::npos ? text.size() : nl + 1);
+  }
+  std::size_t first_line[kSplitParts + 1] = {};
+#pragma omp parallel for schedule(static)
+  for (std::ptrdiff_t p = 0; p < static_cast<std::ptrdiff_t>(kSplitParts); ++p) {
+    std::size_t count = 0;
+    for_each_line(text.substr(begin[p], begin[p + 1] - begin[p]), [&](std::string_view) { ++count; });
+    first_line[p + 1] = count;
+  }
+  for (std::size_t p = 0; p < kSplitParts; ++p) first_line[p + 1] += first_line[p];
+  lines.resize(first_line[kSplitParts]);
+#pragma omp parallel for schedule(static)
+  for (std::ptrdiff_t p = 0; p < static_cast<std::ptrdiff_t>(kSplitParts); ++p) {
+    std::string_view* out = lines.data() + first_line[p];
+    // Views of `text` itself, not of the part (substr of a view keeps the same bytes).
+    for_each_line(text.substr(begin[p], begin[p + 1] - begin[p]),
+                  [&](std::string_view line) { *out++ = line; });
   }
   return lines;
 }

@@ -452,7 +452,15 @@ ParseResult NetworkParser::finish() {
   constexpr std::size_t kAhead = 16;
   std::vector<Pipe>& pipes = net_.pipes;
   std::size_t kept = 0;
-  for (std::size_t k = 0; k < pipes.size(); ++k) {
+  if (bulk_read_) {
+    // Read in bulk, settled in bulk; any error reads the file again line by line.
+    if (!settle_in_bulk(ends_, defaults_, &net_)) {
+      fall_back_ = true;
+      return {};
+    }
+    kept = pipes.size();
+  }
+  for (std::size_t k = kept; k < pipes.size(); ++k) {
     if (diagnostics_.full()) break;
     if (k + 2 * kAhead < pipes.size()) {
       net_.prefetch_node(ends_[k + 2 * kAhead].from_id);
@@ -542,7 +550,10 @@ ParseResult parse_network_file(const std::string& path) {
   {
     NetworkParser bulk(kBulkReadFromLines);
     bulk.parse_file(path, 0, "", 0);
-    if (!bulk.needs_line_by_line()) return bulk.finish();
+    if (!bulk.needs_line_by_line()) {
+      ParseResult result = bulk.finish();
+      if (!bulk.needs_line_by_line()) return result;
+    }
   }
   NetworkParser parser(kNoSlot);
   parser.parse_file(path, 0, "", 0);
@@ -554,7 +565,10 @@ ParseResult parse_network_text(std::string_view text, const std::string& file_na
   {
     NetworkParser bulk(bulk_from_lines);
     bulk.parse_text(text, file_name, 0);
-    if (!bulk.needs_line_by_line()) return bulk.finish();
+    if (!bulk.needs_line_by_line()) {
+      ParseResult result = bulk.finish();
+      if (!bulk.needs_line_by_line()) return result;
+    }
   }
   NetworkParser parser(kNoSlot);
   parser.parse_text(text, file_name, 0);
