@@ -12,6 +12,8 @@
 #include <string_view>
 #include <vector>
 
+#include "gradeline/prefault.h"
+
 namespace gradeline {
 
 // Starts loading the cache line at `address`. GCC 12 was seen to drop __builtin_prefetch
@@ -120,6 +122,8 @@ class IdIndex {
   void rehash(std::size_t capacity) {
     std::vector<Slot> old;
     old.swap(slots_);
+    slots_.reserve(capacity);
+    prefault_capacity(slots_);
     slots_.assign(capacity, Slot{});
     for (const Slot& o : old) {
       if (o.index == kEmpty) continue;

@@ -3,6 +3,8 @@
 #include <algorithm>
 #include <cstring>
 
+#include "gradeline/prefault.h"
+
 namespace gradeline {
 namespace {
 
@@ -61,7 +63,7 @@ std::vector<std::string_view> split_lines(std::string_view text) {
     first_line[p + 1] = count;
   }
   for (std::size_t p = 0; p < kSplitParts; ++p) first_line[p + 1] += first_line[p];
-  lines.resize(first_line[kSplitParts]);
+  resize_prefaulted(lines, first_line[kSplitParts]);
 #pragma omp parallel for schedule(static)
   for (std::ptrdiff_t p = 0; p < static_cast<std::ptrdiff_t>(kSplitParts); ++p) {
     std::string_view* out = lines.data() + first_line[p];

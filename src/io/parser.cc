@@ -13,6 +13,7 @@
 #include "io/element_reader.h"
 #include "io/lexer.h"
 #include "io/statement_options.h"
+#include "gradeline/prefault.h"
 #include "model/water.h"
 
 namespace gradeline {
@@ -205,6 +206,10 @@ void NetworkParser::read_placed(const std::vector<std::string_view>& lines,
   placing_ = true;
   bulk_read_ = true;
   std::vector<Node>& nodes = net_.nodes;
+  // Reserved by parse_text: the pages are mapped in one go before the slots are written.
+  prefault_capacity(nodes);
+  prefault_capacity(net_.pipes);
+  prefault_capacity(ends_);
   nodes.resize(kinds.node_lines);
   net_.pipes.resize(kinds.link_lines);
   ends_.resize(kinds.link_lines);
@@ -531,7 +536,11 @@ bool read_text_file(const std::string& path, std::string* text, std::string* err
   // One read into a buffer of the file's size (no stream copies); files whose size is not
   // known in advance (pipes) are read in chunks.
   text->clear();
-  if (!ec) text->resize(static_cast<std::size_t>(size));
+  if (!ec) {
+    text->reserve(static_cast<std::size_t>(size));
+    prefault(text->data(), text->capacity());
+    text->resize(static_cast<std::size_t>(size));
+  }
   in.read(text->data(), static_cast<std::streamsize>(text->size()));
   std::size_t got = static_cast<std::size_t>(in.gcount());
   text->resize(got);

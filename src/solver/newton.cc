@@ -5,6 +5,7 @@
 #include <limits>
 #include <sstream>
 
+#include "gradeline/prefault.h"
 #include "hydraulics/chain_law.h"
 #include "hydraulics/link_law.h"
 #include "model/topology.h"
@@ -267,6 +268,7 @@ SolveResult GradientSolver::run() {
   const std::size_t links = net_.pipes.size();
   auto t = Clock::now();
   laws_.reserve(links);
+  prefault_capacity(laws_);
   for (const Pipe& p : net_.pipes) {
     laws_.push_back(make_pipe_law(p, net_.headloss, net_.fluid, options_.hw_regularisation_flow_m3s));
   }
@@ -426,7 +428,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
   sum.worst_continuity_node = norms.worst_node;
   sum.worst_energy_link = norms.worst_link;
 
-  result.nodes.resize(nodes);
+  resize_prefaulted(result.nodes, nodes);
   const double nan = std::numeric_limits<double>::quiet_NaN();
   for (std::size_t n = 0; n < nodes; ++n) {
     NodeState& ns = result.nodes[n];
@@ -439,7 +441,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     ns.pressure_pa = ns.pressure_m * net_.fluid.density_kgm3 * kGravity_ms2;
     if (!supplied_[n]) ++sum.unsupplied_nodes;
   }
-  result.links.resize(links);
+  resize_prefaulted(result.links, links);
   for (std::size_t k = 0; k < links; ++k) {
     LinkState& ls = result.links[k];
     ls.open = active_[k];

@@ -4,6 +4,7 @@
 #include <cmath>
 #include <limits>
 
+#include "gradeline/prefault.h"
 #include "hydraulics/chain_law.h"
 #include "hydraulics/link_law.h"
 #include "solver/newton.h"
@@ -46,7 +47,7 @@ void gather_demands(const Network& net, const Reduction& r, const std::vector<do
 void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions& options,
                      ChainLaws* chains) {
   chains->start.assign(r.chain_start.begin(), r.chain_start.end());
-  chains->law.resize(r.member_link.size());
+  resize_prefaulted(chains->law, r.member_link.size());
   const std::ptrdiff_t members = static_cast<std::ptrdiff_t>(r.member_link.size());
 #pragma omp parallel for schedule(static) if (members >= kParallelChains)
   for (std::ptrdiff_t i = 0; i < members; ++i) {
@@ -66,7 +67,7 @@ void fill_core_network(const Network& net, const Reduction& r, Network* out) {
   core.units = net.units;
   core.headloss = net.headloss;
   core.fluid = net.fluid;
-  core.nodes.resize(r.core_nodes.size());
+  resize_prefaulted(core.nodes, r.core_nodes.size());
   const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(r.core_nodes.size());
 #pragma omp parallel for schedule(static) if (nodes >= kParallelChains)
   for (std::ptrdiff_t c = 0; c < nodes; ++c) {
@@ -82,7 +83,7 @@ void fill_core_network(const Network& net, const Reduction& r, Network* out) {
     m.max_level_m = n.max_level_m;
     m.tank_diameter_m = n.tank_diameter_m;
   }
-  core.pipes.resize(r.kept_links.size() + r.chains());
+  resize_prefaulted(core.pipes, r.kept_links.size() + r.chains());
   auto copy = [&](std::size_t at, std::uint32_t k, std::uint32_t from, std::uint32_t to) {
     const Pipe& p = net.pipes[k];
     Pipe& q = core.pipes[at];
@@ -201,8 +202,8 @@ SolveResult expand(const Network& net, const Topology& topology, const Reduction
                    SolveResult&& core) {
   SolveResult out;
   out.summary = std::move(core.summary);
-  out.nodes.resize(net.nodes.size());
-  out.links.resize(net.pipes.size());
+  resize_prefaulted(out.nodes, net.nodes.size());
+  resize_prefaulted(out.links, net.pipes.size());
   const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(net.nodes.size());
   const std::ptrdiff_t core_nodes = static_cast<std::ptrdiff_t>(r.core_nodes.size());
   const std::ptrdiff_t kept = static_cast<std::ptrdiff_t>(r.kept_links.size());
