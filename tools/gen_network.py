@@ -4,11 +4,14 @@
     /usr/bin/python3 tools/gen_network.py grid 100000 --seed 1 > /tmp/grid100k.gln
     /usr/bin/python3 tools/gen_network.py distribution 1000000 --seed 1 > /tmp/dist1m.gln
 
-grid:          a 2D street lattice with random diameters, elevations and demands, fed by a few
-               reservoirs on its edge.
+grid:          a 2D street lattice with random elevations and demands, 100-200 mm pipes, a
+               300-500 mm main on every tenth street, and a source at a crossing of mains for
+               about every 4,000 nodes.
 distribution:  a random spanning tree (degree 2-4, long branches), with about 15% extra links
-               that close local loops, mains sized from the demand they carry, a few sources
-               and a few closed pipes.
+               that close local loops, a few closed pipes on small branches, and one source for every 20,000
+               nodes or so (two at least), each feeding the zone of the tree below it; mains
+               are sized for about 0.6 m/s at the demand of their zone (a zone boundary is a
+               150 mm interconnection), so that the heads are those of a plausible system.
 The size is the number of pipes (approximately). The networks are invented and only for
 benchmarks.
 """
@@ -17,7 +20,7 @@ import math
 import random
 import sys
 
-DIAMETERS_MM = [100, 150, 200, 250, 300, 400, 500, 600, 750, 900]
+DIAMETERS_MM = [100, 150, 200, 250, 300, 400, 500, 600, 750, 900, 1050, 1200]
 
 
 def write_header(out, title):
@@ -35,17 +38,27 @@ def grid(pipes, rng, out):
             z = 40 + 10 * math.sin(r / 37.0) + 8 * math.cos(c / 23.0) + rng.uniform(-1, 1)
             lines.append("node G%d_%d elevation=%.2f demand=%.3f at=%d,%d\n"
                          % (r, c, z, rng.uniform(0.02, 0.3), c * 100, r * 100))
-    sources = max(2, side // 100)
-    for s in range(sources):
-        c = (s * side) // sources + side // (2 * sources)
-        lines.append("reservoir S%d head=%.1f at=%d,-300\n" % (s, 150.0, c * 100))
-        lines.append("pipe T%d S%d G0_%d length=300 diameter=900\n" % (s, s, c))
+    # Every tenth street holds a main; a source (a service reservoir on a trunk main) stands at
+    # a crossing of mains for about every 4,000 nodes, or at two crossings in small grids.
+    main_every = 10
+    crossings = [(r, c) for r in range(main_every // 2, side, main_every)
+                 for c in range(main_every // 2, side, main_every)] or [(0, 0), (side - 1, side - 1)]
+    sources = max(2, side * side // 4000)
+    step = max(1, len(crossings) // sources)
+    feeds = crossings[step // 2::step][:sources]
+    share = side * side * 0.16e-3 / len(feeds)  # mean demand 0.16 L/s a node
+    for s, (r, c) in enumerate(feeds):
+        need = math.sqrt(4 * share / (math.pi * 1.5)) * 1e3
+        d = next((dd for dd in DIAMETERS_MM if dd >= need), DIAMETERS_MM[-1])
+        lines.append("reservoir S%d head=%.1f at=%d,%d\n" % (s, 100.0, c * 100 + 50, r * 100 + 50))
+        lines.append("pipe T%d S%d G%d_%d length=300 diameter=%d\n" % (s, s, r, c, d))
     k = 0
     for r in range(side):
         for c in range(side):
             for dr, dc in ((0, 1), (1, 0)):
                 if r + dr < side and c + dc < side:
-                    d = rng.choice(DIAMETERS_MM[:6])
+                    on_main = (r % main_every == main_every // 2) if dc else (c % main_every == main_every // 2)
+                    d = rng.choice(DIAMETERS_MM[4:7] if on_main else DIAMETERS_MM[:3])
                     lines.append("pipe P%d G%d_%d G%d_%d length=%.0f diameter=%d\n"
                                  % (k, r, c, r + dr, c + dc, rng.uniform(80, 140), d))
                     k += 1
@@ -79,10 +92,23 @@ def distribution(pipes, rng, out):
         if len(open_tips) > 64:
             open_tips.pop(0)
     demand = [rng.uniform(0.01, 0.2) * 1e-3 for _ in range(nodes)]
+    # Zones: children before parents (every parent was grown before its children), a node
+    # whose zone has gathered the demand of about 20,000 nodes becomes a source's and stops
+    # gathering; the root's zone takes what is left. At least two sources.
+    target = sum(demand) / max(2, nodes // 20000)
     carried = demand[:]
+    source_node = []
     for i in range(nodes - 1, 0, -1):
-        carried[parent[i]] += carried[i]
-    sources = max(2, nodes // 200000 + 2)
+        if carried[i] >= target:
+            source_node.append(i)
+        else:
+            carried[parent[i]] += carried[i]
+    source_node.append(0)
+    if len(source_node) < 2:
+        source_node.append(nodes // 2)
+    source_node.reverse()
+    feeds = set(source_node) - {0}
+    sources = len(source_node)
     write_header(out, "synthetic distribution network, %d nodes" % nodes)
     lines = []
     for i in range(nodes):
@@ -91,10 +117,15 @@ def distribution(pipes, rng, out):
                      % (i, z, demand[i] * 1e3, x[i], y[i]))
     k = 0
     for i in range(1, nodes):
-        # Size for about 0.6 m/s at the flow the branch carries, from the commercial list.
+        # Size for about 0.6 m/s at the flow the branch carries, from the commercial list; the
+        # pipe into another source's zone is an interconnection.
         need = math.sqrt(4 * carried[i] / (math.pi * 0.6)) * 1e3
         d = next((dd for dd in DIAMETERS_MM if dd >= need), DIAMETERS_MM[-1])
-        status = " status=closed" if rng.random() < 0.002 else ""
+        if i in feeds:
+            d = DIAMETERS_MM[1]
+        # Shut valves on small branches only (under 1 L/s): a closed main would leave its
+        # zone hanging on a 100 mm loop, heads a thousand metres below ground.
+        status = " status=closed" if rng.random() < 0.002 and carried[i] < 1e-3 else ""
         lines.append("pipe P%d D%d D%d length=%.0f diameter=%d%s\n"
                      % (k, parent[i], i, rng.uniform(40, 160), d, status))
         k += 1
@@ -117,10 +148,11 @@ def distribution(pipes, rng, out):
                      % (k, a, b, rng.uniform(60, 200), rng.choice(DIAMETERS_MM[:3])))
         k += 1
         extra -= 1
-    for s in range(sources):
-        at = 0 if s == 0 else rng.randrange(nodes)
-        lines.append("reservoir S%d head=%.1f\n" % (s, 160.0))
-        lines.append("pipe T%d S%d D%d length=200 diameter=%d\n" % (s, s, at, DIAMETERS_MM[-1]))
+    for s, at in enumerate(source_node):
+        need = math.sqrt(4 * carried[at] / (math.pi * 1.5)) * 1e3
+        d = next((dd for dd in DIAMETERS_MM if dd >= need), DIAMETERS_MM[-1])
+        lines.append("reservoir S%d head=%.1f\n" % (s, 95.0))
+        lines.append("pipe T%d S%d D%d length=200 diameter=%d\n" % (s, s, at, d))
     out.writelines(lines)
 
 
