@@ -80,6 +80,18 @@ TEST_CASE("the unit system set before the first node applies to the lines read i
   CHECK(bulk.network.pipes[0].diameter_m == doctest::Approx(0.2032));  // 8 in
 }
 
+TEST_CASE("a units statement after the first node is refused as when read line by line") {
+  const std::string text =
+      "node A elevation=10\nunits US\nreservoir R head=50\n"
+      "pipe P R A length=100 diameter=6 roughness=0.01\n";
+  ParseResult bulk = parse_network_text(text, "late.gln", kAlwaysBulk);
+  ParseResult lines = parse_network_text(text, "late.gln", kNeverBulk);
+  REQUIRE(lines.errors.size() == 1);
+  CHECK(lines.errors[0].format() ==
+        "late.gln:2: error: 'units' must come before the first value with a unit default");
+  CHECK(errors_text(bulk) == errors_text(lines));
+}
+
 TEST_CASE("a file with an include is read line by line") {
   const std::string dir = testing::temp_dir();
   std::ofstream(dir + "/bulk_part.gln") << "node Z elevation=1\n";

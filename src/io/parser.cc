@@ -227,6 +227,7 @@ void NetworkParser::read_placed(const std::vector<std::string_view>& lines,
       return;
     }
     const LineKind k = kind[i];
+    if (k == LineKind::kNode || k == LineKind::kPipe) units_locked_ = true;  // as node() and pipe()
     if (k == LineKind::kNode) {
       if (next_node + kNodeLookAhead < nodes.size()) {
         net_.prefetch_node(nodes[next_node + kNodeLookAhead].id);
