@@ -6,6 +6,7 @@
 #include <filesystem>
 #include <fstream>
 
+#include "gradeline/prefault.h"
 #include "io/network_writer.h"
 #include "io/parser.h"
 #include "test_support.h"
@@ -169,4 +170,18 @@ TEST_CASE("every shipped, test and pathological network reads the same in bulk")
     }
   }
   CHECK(files > 10);
+}
+
+TEST_CASE("prefaulting a block leaves what it holds as it was") {
+  // madvise(MADV_POPULATE_WRITE) maps pages without writing them (Linux man page madvise(2)).
+  std::vector<double> v(std::size_t{3} << 20);  // 24 MB, above kPrefaultBytes
+  for (std::size_t i = 0; i < v.size(); ++i) v[i] = static_cast<double>(i) * 0.5;
+  v.reserve(v.size() * 2);
+  prefault_capacity(v);
+  std::size_t changed = 0;
+  for (std::size_t i = 0; i < v.size(); ++i) changed += v[i] != static_cast<double>(i) * 0.5;
+  CHECK(changed == 0);
+  resize_prefaulted(v, v.capacity() + 1);
+  CHECK(v[12345] == 12345 * 0.5);
+  CHECK(v.back() == 0.0);
 }

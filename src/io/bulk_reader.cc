@@ -13,17 +13,6 @@ namespace {
 // Lines are shared among the threads in this many contiguous chunks (static schedule).
 constexpr std::size_t kChunks = 64;
 
-bool is_blank(char c) { return c == ' ' || c == '\t'; }
-
-// The first word of a line: after leading blanks, up to a blank or '#'.
-std::string_view first_word(std::string_view line) {
-  std::size_t i = 0;
-  while (i < line.size() && is_blank(line[i])) ++i;
-  std::size_t j = i;
-  while (j < line.size() && !is_blank(line[j]) && line[j] != '#') ++j;
-  return line.substr(i, j - i);
-}
-
 LineKind kind_of(std::string_view word) {
   if (word == "node") return LineKind::kNode;
   if (word == "pipe") return LineKind::kPipe;
@@ -60,6 +49,17 @@ bool read_line(std::string_view text, std::size_t index, LineKind kind, const Re
 
 }  // namespace
 
+std::string_view take_word(std::string_view* line) {
+  auto blank = [](char c) { return c == ' ' || c == '\t'; };
+  std::size_t i = 0;
+  while (i < line->size() && blank((*line)[i])) ++i;
+  std::size_t j = i;
+  while (j < line->size() && !blank((*line)[j]) && (*line)[j] != '#') ++j;
+  const std::string_view word = line->substr(i, j - i);
+  line->remove_prefix(j);
+  return word;
+}
+
 LineKinds classify_lines(const std::vector<std::string_view>& lines) {
   LineKinds out;
   out.kinds.resize(lines.size());
@@ -68,7 +68,8 @@ LineKinds classify_lines(const std::vector<std::string_view>& lines) {
 #pragma omp parallel for schedule(static) if (count >= static_cast<std::ptrdiff_t>(kBulkReadFromLines)) \
     reduction(+ : node_lines, link_lines, includes)
   for (std::ptrdiff_t i = 0; i < count; ++i) {
-    const LineKind k = kind_of(first_word(lines[static_cast<std::size_t>(i)]));
+    std::string_view line = lines[static_cast<std::size_t>(i)];
+    const LineKind k = kind_of(take_word(&line));
     out.kinds[static_cast<std::size_t>(i)] = k;
     node_lines += takes_node_slot(k);
     link_lines += takes_link_slot(k);

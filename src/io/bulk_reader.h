@@ -36,7 +36,11 @@ enum class LineKind : unsigned char {
   kInclude,    // `include`: elements of another file would interleave, so no bulk read
 };
 
-// The kind of each line, by its first word (up to a blank or '#'), with the counts.
+// The first word of *line (after blanks, up to a blank or '#'), removed from *line with what
+// precedes it.
+std::string_view take_word(std::string_view* line);
+
+// The kind of each line, by its first word (take_word), with the counts.
 struct LineKinds {
   std::vector<LineKind> kinds;
   std::size_t node_lines = 0;  // node, reservoir, tank

@@ -35,18 +35,6 @@ const std::vector<std::string> kKeywords = {"title", "units",    "headloss", "fl
 // declared this many lines ahead is requested early.
 constexpr std::size_t kNodeLookAhead = 16;
 
-bool is_blank(char c) { return c == ' ' || c == '\t'; }
-
-std::string_view first_field(std::string_view* line) {
-  std::size_t i = 0;
-  while (i < line->size() && is_blank((*line)[i])) ++i;
-  std::size_t j = i;
-  while (j < line->size() && !is_blank((*line)[j]) && (*line)[j] != '#') ++j;
-  const std::string_view field = line->substr(i, j - i);
-  line->remove_prefix(j);
-  return field;
-}
-
 struct PendingReservoir {
   std::size_t node = 0;
   PendingPressure pressure;
@@ -84,9 +72,9 @@ class NetworkParser {
   bool add_node(Node n, std::size_t* index);
   // A hint only: the ID of a node statement on `line`, looked for without a full lex.
   void prefetch_node_slot(std::string_view line) const {
-    const std::string_view word = first_field(&line);
+    const std::string_view word = take_word(&line);
     if (word == "node" || word == "reservoir" || word == "tank") {
-      const std::string_view id = first_field(&line);
+      const std::string_view id = take_word(&line);
       if (!id.empty()) net_.prefetch_node(id);
     }
   }
