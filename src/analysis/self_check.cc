@@ -25,7 +25,7 @@ std::string link_failure(const Network& net, const SolveResult& r, const SolveOp
     const NodeState &a = r.nodes[p.from], &b = r.nodes[p.to];
     const bool at_empty_tank = net.nodes[p.from].receives_only() || net.nodes[p.to].receives_only();
     if (l.closed_by_check_valve && p.check_valve && !at_empty_tank && a.supplied && b.supplied &&
-        a.head_m - b.head_m - law.zero_flow_headloss_m > kSelfCheckSlack * options.energy_tolerance_m) {
+        a.head_m - b.head_m - law.zero_flow_headloss_m() > kSelfCheckSlack * options.energy_tolerance_m) {
       return std::string(p.is_pump() ? "pump '" : "check valve '") + p.id +
              "' is closed with a head favouring forward flow";
     }

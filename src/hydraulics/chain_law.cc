@@ -15,8 +15,7 @@ LinkEval ChainLaws::evaluate(std::size_t c, double flow_m3s) {
 double ChainLaws::cold_start_flow(std::size_t c, double velocity_ms) const {
   double sum = 0.0, weights = 0.0;
   for (std::uint32_t i = start[c]; i < start[c + 1]; ++i) {
-    const double d2 = law[i].diameter_m * law[i].diameter_m;
-    const double w = law[i].length_m / (d2 * d2 * law[i].diameter_m);
+    const double w = law[i].turbulent_coef;  // proportional to L / D^5
     sum += w * (sign[i] * velocity_ms * law[i].area_m2 + offset_m3s[i]);
     weights += w;
   }

@@ -15,47 +15,44 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
   if (pipe.is_pump()) {
     const double s = pipe.speed;
     const PumpCurve& c = pipe.curve;
-    p.pump = true;
-    p.pump_gain_m = c.shutoff_head_m * s * s;
-    p.pump_coefficient = c.coefficient * std::pow(s, 2.0 - c.exponent);
-    p.pump_exponent = c.exponent;
-    p.zero_flow_headloss_m = -p.pump_gain_m;
+    p.kind = LawKind::kPump;
+    p.pump.gain_m = c.shutoff_head_m * s * s;
+    p.pump.coefficient = c.coefficient * std::pow(s, 2.0 - c.exponent);
+    p.pump.exponent = c.exponent;
     return p;
   }
   if (pipe.is_valve()) {
     const double d = pipe.diameter_m;
-    p.valve = true;
-    p.diameter_m = d;
+    p.kind = LawKind::kValve;
     p.area_m2 = kPi * d * d / 4.0;
     p.minor_coef = pipe.minor_k / (2.0 * kGravity_ms2 * p.area_m2 * p.area_m2);
     p.laminar_coef = kValveLinearResistance;
     p.fixed_loss_m = pipe.valve_loss_m;
     return p;
   }
-  p.law = model.law;
-  p.length_m = pipe.length_m;
-  p.diameter_m = pipe.diameter_m;
   const double d = pipe.diameter_m;
   const double a = kPi * d * d / 4.0;
   p.area_m2 = a;
-  p.relative_roughness = pipe.roughness_m.value_or(0.0) / d;
   p.reynolds_per_flow = d / (fluid.kinematic_viscosity_m2s * a);
   p.turbulent_coef = pipe.length_m / (2.0 * kGravity_ms2 * d * a * a);
   p.laminar_coef = 32.0 * fluid.kinematic_viscosity_m2s * pipe.length_m / (kGravity_ms2 * d * d * a);
   p.minor_coef = pipe.minor_k / (2.0 * kGravity_ms2 * a * a);
   if (model.law == HeadlossLaw::kHazenWilliams) {
     const double c = pipe.cfactor.value_or(100.0);
-    p.hw_exponent = model.hw_flow_exponent;
-    p.hw_coef = model.hw_coefficient * pipe.length_m /
+    p.kind = LawKind::kHazenWilliams;
+    p.hw.exponent = model.hw_flow_exponent;
+    p.hw.coef = model.hw_coefficient * pipe.length_m /
                 (std::pow(c, model.hw_flow_exponent) * std::pow(d, model.hw_diameter_exponent));
-    p.hw_q0_m3s = hw_regularisation_flow_m3s;
+    p.hw.q0_m3s = hw_regularisation_flow_m3s;
+  } else {
+    p.relative_roughness = pipe.roughness_m.value_or(0.0) / d;
   }
   return p;
 }
 
 LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
   LinkEval e;
-  if (p.valve) {
+  if (p.is_valve()) {
     const double q = std::abs(flow);
     e.headloss_m = p.minor_coef * q * flow + p.laminar_coef * flow;
     e.dh_dq = 2.0 * p.minor_coef * q + p.laminar_coef;
@@ -67,12 +64,12 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
     }
     return e;
   }
-  if (p.pump) {
+  if (p.is_pump()) {
     const double q0 = kPumpRegularisationFlow_m3s;
-    const double c = p.pump_exponent;
+    const double c = p.pump.exponent;
     const double sq = flow * flow + q0 * q0;
-    const double base = p.pump_coefficient * std::pow(sq, 0.5 * (c - 3.0));
-    e.headloss_m = -p.pump_gain_m + base * sq * flow;
+    const double base = p.pump.coefficient * std::pow(sq, 0.5 * (c - 3.0));
+    e.headloss_m = -p.pump.gain_m + base * sq * flow;
     e.dh_dq = base * (c * flow * flow + q0 * q0);
     return e;
   }
@@ -81,7 +78,7 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
   e.reynolds = q * p.reynolds_per_flow;
   double h = 0.0;
   double dh = 0.0;
-  if (p.law == HeadlossLaw::kDarcyWeisbach) {
+  if (p.kind == LawKind::kDarcyWeisbach) {
     if (e.reynolds <= kLaminarLimitRe) {
       h = p.laminar_coef * q;
       dh = p.laminar_coef;
@@ -95,11 +92,12 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
       e.friction_factor = f.f;
     }
   } else {
-    const double n = p.hw_exponent;
-    const double s = q * q + p.hw_q0_m3s * p.hw_q0_m3s;
-    const double base = p.hw_coef * std::pow(s, 0.5 * (n - 3.0));
+    const double n = p.hw.exponent;
+    const double q0 = p.hw.q0_m3s;
+    const double s = q * q + q0 * q0;
+    const double base = p.hw.coef * std::pow(s, 0.5 * (n - 3.0));
     h = base * s * q;
-    dh = base * (n * q * q + p.hw_q0_m3s * p.hw_q0_m3s);
+    dh = base * (n * q * q + q0 * q0);
     if (q > 0.0) {
       e.friction_factor = h / (p.turbulent_coef * q * q);
       e.regime = e.reynolds <= kLaminarLimitRe    ? FlowRegime::kLaminar

@@ -21,35 +21,44 @@
 // solver (a pump closes like a check valve), so g only needs to be monotone there.
 #pragma once
 
+#include <cstdint>
+
 #include "gradeline/network.h"
 #include "gradeline/solve_summary.h"
 
 namespace gradeline {
 
-// Coefficients of one pipe's law, computed once per solve so the Newton loop does no division
-// by geometry.
+// Coefficients of one link's law, computed once per solve so the Newton loop does no division
+// by geometry. 72 bytes: the Newton loop streams one of these per pipe per iteration, so the
+// fields that only one kind of link uses share their storage (the union, chosen by `kind`).
+enum class LawKind : std::uint8_t { kDarcyWeisbach, kHazenWilliams, kPump, kValve };
+
 struct PipeLaw {
-  HeadlossLaw law = HeadlossLaw::kDarcyWeisbach;
-  double length_m = 0.0;
-  double diameter_m = 0.0;
-  double area_m2 = 0.0;
-  double relative_roughness = 0.0;   // e/D
+  LawKind kind = LawKind::kDarcyWeisbach;
+  double area_m2 = 0.0;              // 0 for a pump
   double reynolds_per_flow = 0.0;    // Re = |Q| * this, s/m^3
   double turbulent_coef = 0.0;       // L / (2 g D A^2): h_f = f * this * Q^2, s^2/m^5
   double laminar_coef = 0.0;         // 32 nu L / (g D^2 A): h_f = this * Q, s/m^2
   double minor_coef = 0.0;           // K / (2 g A^2), s^2/m^5
-  double hw_coef = 0.0;              // k L / (C^n D^m)
-  double hw_exponent = 1.852;
-  double hw_q0_m3s = 1e-8;
-  // Pumps.
-  bool pump = false;
-  double pump_gain_m = 0.0;      // a s^2
-  double pump_coefficient = 0.0; // b s^(2-c)
-  double pump_exponent = 2.0;    // c
-  double zero_flow_headloss_m = 0.0;  // h(0): 0 for a pipe, -a s^2 for a pump
-  // Valves: an open or throttling valve loses K V|V|/2g plus a tiny linear term (see below).
-  bool valve = false;
-  double fixed_loss_m = 0.0;
+  union {
+    double relative_roughness = 0.0;  // Darcy-Weisbach pipes: e/D
+    struct {
+      double coef;       // k L / (C^n D^m)
+      double exponent;   // n
+      double q0_m3s;     // regularisation flow
+    } hw;                // Hazen-Williams pipes
+    struct {
+      double gain_m;       // a s^2
+      double coefficient;  // b s^(2-c)
+      double exponent;     // c
+    } pump;              // pumps
+    double fixed_loss_m;  // valves: a throttle's fixed head loss, else 0
+  };
+
+  bool is_pump() const { return kind == LawKind::kPump; }
+  bool is_valve() const { return kind == LawKind::kValve; }
+  // h(0): 0 for a pipe or valve, -a s^2 for a pump.
+  double zero_flow_headloss_m() const { return is_pump() ? -pump.gain_m : 0.0; }
 };
 
 // A fully open valve with K = 0 still needs dh/dQ > 0: h = K V|V|/2g + r Q with r = 1e-3 s/m^2

@@ -109,7 +109,7 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
     const std::size_t chunk = static_cast<std::size_t>(c);
     // Each chunk has its own copy of the file name: elements read at the same time on
     // different cores then never count references on one shared counter.
-    const auto name = std::make_shared<const std::string>(file);
+    const std::string* name = intern_file_name(file);
     Diagnostics diagnostics;
     const ReadContext context{file, name, units, &diagnostics};
     Statement s;

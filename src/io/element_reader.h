@@ -20,7 +20,7 @@ extern const Range kLengthRange, kDiameterRange, kRoughnessRange, kElevationRang
 
 struct ReadContext {
   const std::string& file;
-  std::shared_ptr<const std::string> file_name;  // the same, shared by the elements read
+  const std::string* file_name = nullptr;  // `file`, interned (intern_file_name)
   UnitSystem units = UnitSystem::kSI;
   Diagnostics* diagnostics = nullptr;
 };

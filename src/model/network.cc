@@ -1,6 +1,17 @@
 #include "gradeline/network.h"
 
+#include <mutex>
+#include <unordered_set>
+
 namespace gradeline {
+
+const std::string* intern_file_name(std::string_view name) {
+  // A node-based set: its strings never move, and are never freed (see the header).
+  static std::mutex* guard = new std::mutex;
+  static auto* names = new std::unordered_set<std::string>;
+  std::lock_guard<std::mutex> lock(*guard);
+  return &*names->emplace(name).first;
+}
 
 const char* link_kind_name(LinkKind kind) {
   switch (kind) {
