@@ -27,15 +27,23 @@ Topology build_topology(const Network& net) {
 }
 
 Topology build_link_ends(const Network& net) {
+  // Each slot is written once, so large networks fill them on every core.
   Topology t;
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net.pipes.size());
+  const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(net.nodes.size());
   t.from.resize(net.pipes.size());
   t.to.resize(net.pipes.size());
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    t.from[k] = static_cast<std::uint32_t>(net.pipes[k].from);
-    t.to[k] = static_cast<std::uint32_t>(net.pipes[k].to);
-  }
   t.fixed_head.resize(net.nodes.size());
-  for (std::size_t i = 0; i < net.nodes.size(); ++i) t.fixed_head[i] = net.nodes[i].is_fixed_head();
+#pragma omp parallel if (links >= kParallelElements)
+  {
+#pragma omp for schedule(static) nowait
+    for (std::ptrdiff_t k = 0; k < links; ++k) {
+      t.from[k] = static_cast<std::uint32_t>(net.pipes[k].from);
+      t.to[k] = static_cast<std::uint32_t>(net.pipes[k].to);
+    }
+#pragma omp for schedule(static) nowait
+    for (std::ptrdiff_t i = 0; i < nodes; ++i) t.fixed_head[i] = net.nodes[i].is_fixed_head();
+  }
   return t;
 }
 

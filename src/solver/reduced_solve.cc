@@ -121,6 +121,25 @@ void fill_core_network(const Network& net, const Reduction& r, Network* out) {
   }
 }
 
+// The largest value seen and the first index where it was seen; a value of zero (or NaN) never
+// displaces index 0.
+struct Worst {
+  double value = 0.0;
+  std::size_t index = 0;
+  void see(double v, std::size_t i) {
+    if (v > value) {
+      value = v;
+      index = i;
+    }
+  }
+  void merge_into(double* best, std::size_t* at) const {
+    if (value > *best || (value == *best && value > 0.0 && index < *at)) {
+      *best = value;
+      *at = index;
+    }
+  }
+};
+
 void set_node(const Network& net, std::size_t n, double head_m, bool supplied, NodeState* ns) {
   const double nan = std::numeric_limits<double>::quiet_NaN();
   ns->supplied = supplied;
@@ -238,34 +257,48 @@ SolveResult expand(const Network& net, const Topology& topology, const Reduction
     const Pipe& p = net.pipes[k];
     ls.energy_residual_m = ls.headloss_m - (out.nodes[p.from].head_m - out.nodes[p.to].head_m);
   };
-  for (std::uint32_t k : r.member_link) energy(k);
-  for (std::uint32_t k : r.tree_link) energy(k);
+  // Every link and node below is visited on its own, so large networks share them among the
+  // cores; each core keeps the first worst of its share and the first worst of all is chosen
+  // after, so the result does not depend on how they were shared.
+  const std::ptrdiff_t members = static_cast<std::ptrdiff_t>(r.member_link.size());
+  const std::ptrdiff_t trees = static_cast<std::ptrdiff_t>(r.tree_link.size());
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net.pipes.size());
   SolveSummary& s = out.summary;
   s.max_continuity_residual_m3s = s.max_energy_residual_m = 0.0;
   s.worst_continuity_node = s.worst_energy_link = 0;
-  s.unsupplied_nodes = 0;
-  bool finite = true;
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    NodeState& ns = out.nodes[n];
-    if (!ns.supplied) ++s.unsupplied_nodes;
-    const bool counts = !net.nodes[n].is_fixed_head() && ns.supplied;
-    ns.continuity_residual_m3s = counts ? balance[n] - demand[n] : 0.0;
-    if (counts && !(std::isfinite(ns.head_m) && std::isfinite(ns.continuity_residual_m3s))) {
-      finite = false;
+  std::size_t unsupplied = 0;
+  int finite = 1;
+#pragma omp parallel if (links >= kParallelChains) reduction(+ : unsupplied) reduction(&& : finite)
+  {
+#pragma omp for schedule(static)
+    for (std::ptrdiff_t i = 0; i < members; ++i) energy(r.member_link[i]);
+#pragma omp for schedule(static)
+    for (std::ptrdiff_t i = 0; i < trees; ++i) energy(r.tree_link[i]);
+    Worst node_worst, link_worst;
+#pragma omp for schedule(static) nowait
+    for (std::ptrdiff_t n = 0; n < nodes; ++n) {
+      NodeState& ns = out.nodes[n];
+      if (!ns.supplied) ++unsupplied;
+      const bool counts = !net.nodes[n].is_fixed_head() && ns.supplied;
+      ns.continuity_residual_m3s = counts ? balance[n] - demand[n] : 0.0;
+      if (counts && !(std::isfinite(ns.head_m) && std::isfinite(ns.continuity_residual_m3s))) {
+        finite = 0;
+      }
+      node_worst.see(std::abs(ns.continuity_residual_m3s), static_cast<std::size_t>(n));
     }
-    if (std::abs(ns.continuity_residual_m3s) > s.max_continuity_residual_m3s) {
-      s.max_continuity_residual_m3s = std::abs(ns.continuity_residual_m3s);
-      s.worst_continuity_node = n;
+#pragma omp for schedule(static) nowait
+    for (std::ptrdiff_t k = 0; k < links; ++k) {
+      const LinkState& ls = out.links[k];
+      if (!std::isfinite(ls.energy_residual_m) || !std::isfinite(ls.flow_m3s)) finite = 0;
+      link_worst.see(std::abs(ls.energy_residual_m), static_cast<std::size_t>(k));
+    }
+#pragma omp critical(gradeline_recovery_worst)
+    {
+      node_worst.merge_into(&s.max_continuity_residual_m3s, &s.worst_continuity_node);
+      link_worst.merge_into(&s.max_energy_residual_m, &s.worst_energy_link);
     }
   }
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    const LinkState& ls = out.links[k];
-    if (!std::isfinite(ls.energy_residual_m) || !std::isfinite(ls.flow_m3s)) finite = false;
-    if (std::abs(ls.energy_residual_m) > s.max_energy_residual_m) {
-      s.max_energy_residual_m = std::abs(ls.energy_residual_m);
-      s.worst_energy_link = k;
-    }
-  }
+  s.unsupplied_nodes = unsupplied;
   // A branch or chain can carry what the core never saw (a pipe too narrow for any finite
   // loss): such a state is no solution, as in an unreduced solve.
   if (!finite && s.converged()) {

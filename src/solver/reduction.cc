@@ -112,10 +112,15 @@ void collapse_chains(const Topology& t, const std::vector<char>& eliminable,
 std::vector<char> eliminable_links(const Network& net) {
   // The tank flags first, in one pass over the nodes, so the pass over the links reads a
   // byte per end instead of a whole node.
+  // Each slot is written once, so large networks fill them on every core.
+  const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(net.nodes.size());
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net.pipes.size());
   std::vector<char> tank(net.nodes.size());
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) tank[n] = net.nodes[n].kind == NodeKind::kTank;
+#pragma omp parallel for schedule(static) if (nodes >= kParallelElements)
+  for (std::ptrdiff_t n = 0; n < nodes; ++n) tank[n] = net.nodes[n].kind == NodeKind::kTank;
   std::vector<char> out(net.pipes.size(), 0);
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+#pragma omp parallel for schedule(static) if (links >= kParallelElements)
+  for (std::ptrdiff_t k = 0; k < links; ++k) {
     const Pipe& p = net.pipes[k];
     out[k] = p.kind == LinkKind::kPipe && p.status == LinkStatus::kOpen && !p.check_valve &&
              p.from != p.to && !tank[p.from] && !tank[p.to];
