@@ -18,8 +18,11 @@ ColebrookSolution colebrook_friction(double re, double rr, double* x_hint) {
   // root monotonically from below; Swamee-Jain starts within about 1% of it.
   const double a = rr / 3.7;
   const double b = 2.51 / re;
-  double x = x_hint != nullptr && *x_hint > 0.0 ? *x_hint
-                                                : 1.0 / std::sqrt(swamee_jain_friction(re, rr));
+  // Swamee-Jain's f = 0.25 / l^2 gives x = 1/sqrt(f) = -2 l directly (l < 0), with
+  // Re^0.9 = exp(0.9 ln Re).
+  double x = x_hint != nullptr && *x_hint > 0.0
+                 ? *x_hint
+                 : -kTwoOverLn10 * std::log(a + 5.74 * std::exp(-0.9 * std::log(re)));
   ColebrookSolution out;
   double inner = a + b * x;
   double dF_dx = 1.0 + kTwoOverLn10 * b / inner;
