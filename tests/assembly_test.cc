@@ -11,7 +11,7 @@ using namespace gradeline;
 
 TEST_CASE("assembled matrix equals B^T C B over the junctions, with unit rows for unsupplied") {
   Network net = testing::load("tests/networks/loop_two_sources.gln");
-  AssemblyPlan plan = plan_assembly(net);
+  AssemblyPlan plan = plan_assembly(build_link_ends(net));
   std::vector<double> c(net.pipes.size());
   for (std::size_t k = 0; k < c.size(); ++k) c[k] = 0.5 + 0.25 * k;
   c[3] = 0.0;  // an inactive link
@@ -36,7 +36,7 @@ TEST_CASE("assembled matrix equals B^T C B over the junctions, with unit rows fo
 
 TEST_CASE("CHOLMOD and Eigen's LDL^T agree on the assembled system") {
   Network net = testing::load("networks/brindlemoor.gln");
-  AssemblyPlan plan = plan_assembly(net);
+  AssemblyPlan plan = plan_assembly(build_link_ends(net));
   std::vector<double> c(net.pipes.size(), 1.0);
   std::vector<char> unsupplied(net.nodes.size(), 0);
   assemble_matrix(c, unsupplied, &plan);

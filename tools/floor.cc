@@ -53,8 +53,9 @@ int main(int argc, char** argv) {
   // The matrix of the converged state: conductance 1/(dh/dQ) of every open link, assembled
   // in file order (for the AMD analysis) and renumbered by the postordered AMD order, as the
   // solver does (for the factorisation, with the natural ordering, which is CHOLMOD's fastest).
-  AssemblyPlan file_order = plan_assembly(net);
-  AssemblyPlan plan = plan_assembly(net, junction_order(net));
+  const Topology ends = build_link_ends(net);
+  AssemblyPlan file_order = plan_assembly(ends);
+  AssemblyPlan plan = plan_assembly(ends, junction_order(ends));
   std::vector<double> conductance(net.pipes.size(), 0.0);
   std::vector<char> unsupplied(net.nodes.size(), 0);
   for (std::size_t n = 0; n < net.nodes.size(); ++n) unsupplied[n] = !r.nodes[n].supplied;
@@ -133,8 +134,9 @@ int main(int argc, char** argv) {
     const double q = reduction.member_sign[first] * l.flow_m3s;
     core_conductance[reduction.kept_links.size() + c] = 1.0 / core.chains.evaluate(c, q).dh_dq;
   }
-  AssemblyPlan core_file_order = plan_assembly(cn);
-  AssemblyPlan core_plan = plan_assembly(cn, junction_order(cn));
+  const Topology core_ends = build_link_ends(cn);
+  AssemblyPlan core_file_order = plan_assembly(core_ends);
+  AssemblyPlan core_plan = plan_assembly(core_ends, junction_order(core_ends));
   assemble_matrix(core_conductance, core_unsupplied, &core_file_order);
   assemble_matrix(core_conductance, core_unsupplied, &core_plan);
   std::vector<double> core_analyse;

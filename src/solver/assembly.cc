@@ -17,17 +17,17 @@ int slot_of(const SymmetricMatrix& m, int row, int col) {
 
 }  // namespace
 
-std::vector<int> junction_order(const Network& net) {
-  std::vector<int> unknown(net.nodes.size(), -1);
+std::vector<int> junction_order(const Topology& t) {
+  std::vector<int> unknown(t.fixed_head.size(), -1);
   int n = 0;
-  for (std::size_t i = 0; i < net.nodes.size(); ++i) {
-    if (!net.nodes[i].is_fixed_head()) unknown[i] = n++;
+  for (std::size_t i = 0; i < t.fixed_head.size(); ++i) {
+    if (!t.fixed_head[i]) unknown[i] = n++;
   }
   // The full pattern (both triangles, no diagonal) in compressed columns; AMD accepts the
   // duplicate entries that parallel links make.
   std::vector<int> start(n + 1, 0);
-  for (const Pipe& p : net.pipes) {
-    const int a = unknown[p.from], b = unknown[p.to];
+  for (std::size_t k = 0; k < t.from.size(); ++k) {
+    const int a = unknown[t.from[k]], b = unknown[t.to[k]];
     if (a >= 0 && b >= 0 && a != b) {
       ++start[a + 1];
       ++start[b + 1];
@@ -36,8 +36,8 @@ std::vector<int> junction_order(const Network& net) {
   for (int j = 0; j < n; ++j) start[j + 1] += start[j];
   std::vector<int> rows(start[n]);
   std::vector<int> next(start.begin(), start.end() - 1);
-  for (const Pipe& p : net.pipes) {
-    const int a = unknown[p.from], b = unknown[p.to];
+  for (std::size_t k = 0; k < t.from.size(); ++k) {
+    const int a = unknown[t.from[k]], b = unknown[t.to[k]];
     if (a >= 0 && b >= 0 && a != b) {
       rows[next[a]++] = b;
       rows[next[b]++] = a;
@@ -52,11 +52,11 @@ std::vector<int> junction_order(const Network& net) {
   return order;
 }
 
-AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
+AssemblyPlan plan_assembly(const Topology& t, const std::vector<int>& order) {
   AssemblyPlan plan;
-  plan.unknown_of_node.assign(net.nodes.size(), -1);
-  for (std::size_t i = 0; i < net.nodes.size(); ++i) {
-    if (!net.nodes[i].is_fixed_head()) plan.unknown_of_node[i] = plan.unknowns++;
+  plan.unknown_of_node.assign(t.fixed_head.size(), -1);
+  for (std::size_t i = 0; i < t.fixed_head.size(); ++i) {
+    if (!t.fixed_head[i]) plan.unknown_of_node[i] = plan.unknowns++;
   }
   if (!order.empty()) {  // renumber: the junction eliminated k-th becomes unknown k
     std::vector<int> position(order.size());
@@ -68,17 +68,17 @@ AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
   // The upper triangle in compressed columns, built directly: column j holds the rows i < j of
   // the links between junctions i and j (parallel links share one entry), then the diagonal.
   const int n = plan.unknowns;
-  const std::size_t links = net.pipes.size();
+  const std::size_t links = t.from.size();
   std::vector<int> start(n + 1, 0);
-  for (const Pipe& p : net.pipes) {
-    const int a = plan.unknown_of_node[p.from], b = plan.unknown_of_node[p.to];
+  for (std::size_t k = 0; k < links; ++k) {
+    const int a = plan.unknown_of_node[t.from[k]], b = plan.unknown_of_node[t.to[k]];
     if (a >= 0 && b >= 0 && a != b) ++start[std::max(a, b) + 1];
   }
   for (int j = 0; j < n; ++j) start[j + 1] += start[j] + 1;  // + 1: the diagonal
   std::vector<int> rows(start[n]);
   std::vector<int> fill(start.begin(), start.end() - 1);
-  for (const Pipe& p : net.pipes) {
-    const int a = plan.unknown_of_node[p.from], b = plan.unknown_of_node[p.to];
+  for (std::size_t k = 0; k < links; ++k) {
+    const int a = plan.unknown_of_node[t.from[k]], b = plan.unknown_of_node[t.to[k]];
     if (a >= 0 && b >= 0 && a != b) rows[fill[std::max(a, b)]++] = std::min(a, b);
   }
   std::vector<int> outer(n + 1, 0);
@@ -105,8 +105,8 @@ AssemblyPlan plan_assembly(const Network& net, const std::vector<int>& order) {
   plan.to_slot.assign(links, kNoSlot);
   plan.off_slot.assign(links, kNoSlot);
   for (std::size_t k = 0; k < links; ++k) {
-    const int a = plan.unknown_of_node[net.pipes[k].from];
-    const int b = plan.unknown_of_node[net.pipes[k].to];
+    const int a = plan.unknown_of_node[t.from[k]];
+    const int b = plan.unknown_of_node[t.to[k]];
     if (a >= 0) plan.from_slot[k] = plan.diagonal_slot[a];
     if (b >= 0) plan.to_slot[k] = plan.diagonal_slot[b];
     if (a >= 0 && b >= 0 && a != b) plan.off_slot[k] = slot_of(plan.matrix, std::min(a, b), std::max(a, b));

@@ -14,6 +14,7 @@
 #include <vector>
 
 #include "gradeline/network.h"
+#include "model/topology.h"
 #include "solver/sparse_cholesky.h"
 
 namespace gradeline {
@@ -35,11 +36,13 @@ struct AssemblyPlan {
 // junction (numbered in file order among the junctions) to eliminate k-th. Numbering the
 // unknowns this way and factorising with the natural ordering gives AMD's fill, and every step
 // of the factorisation and the solve then walks memory in order. Empty if AMD fails.
-std::vector<int> junction_order(const Network& network);
+std::vector<int> junction_order(const Topology& topology);
 
+// Both read the links' ends and the fixed-head flags from `topology` (build_topology or
+// build_link_ends), which keeps them in flat arrays.
 // Unknowns are the junctions in file order, or, when `order` is given (one entry per
 // junction, as from junction_order), numbered so that junction order[k] is unknown k.
-AssemblyPlan plan_assembly(const Network& network, const std::vector<int>& order = {});
+AssemblyPlan plan_assembly(const Topology& topology, const std::vector<int>& order = {});
 
 // Writes the values of A into plan->matrix. `conductance` has one entry per link (0 for an
 // inactive link); `unsupplied` one per node.

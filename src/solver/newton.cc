@@ -269,10 +269,12 @@ SolveResult GradientSolver::run() {
   const std::size_t nodes = net_.nodes.size();
   const std::size_t links = net_.pipes.size();
   auto t = Clock::now();
-  laws_.reserve(links);
-  prefault_capacity(laws_);
-  for (const Pipe& p : net_.pipes) {
-    laws_.push_back(make_pipe_law(p, net_.headloss, net_.fluid, options_.hw_regularisation_flow_m3s));
+  resize_prefaulted(laws_, links);
+  const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
+#pragma omp parallel for schedule(static) if (link_count >= kParallelLinks)
+  for (std::ptrdiff_t k = 0; k < link_count; ++k) {
+    laws_[k] = make_pipe_law(net_.pipes[k], net_.headloss, net_.fluid,
+                             options_.hw_regularisation_flow_m3s);
   }
   const bool reuse = cache_.matches(net_);
   if (!reuse) cache_.topology = build_topology(net_);
@@ -291,8 +293,8 @@ SolveResult GradientSolver::run() {
   if (!reuse) {
     // The pattern depends on the topology only: plan and analyse once, refactorise after.
     // Renumber the junctions once by the postordered AMD order, then factorise as numbered.
-    const std::vector<int> order = junction_order(net_);
-    cache_.plan = plan_assembly(net_, order);
+    const std::vector<int> order = junction_order(cache_.topology);
+    cache_.plan = plan_assembly(cache_.topology, order);
     cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodAuto,
                                            order.empty() ? Ordering::kAmd : Ordering::kNatural);
     cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
