@@ -58,7 +58,8 @@ struct SolveTiming {
   double reduction_s = 0.0;       // topological reduction and the core problem, before the core solve
   double recovery_s = 0.0;        // eliminated flows and heads, and the full residuals, after it
   double total_s = 0.0;
-  // Link-law evaluations: done, and reused because the link's flow had not changed.
+  // Link-law evaluations: done, and updated to first order from the last one because the
+  // link's flow had barely moved (partial update).
   long long link_evaluations = 0;
   long long reused_link_evaluations = 0;
 };

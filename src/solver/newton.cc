@@ -27,10 +27,13 @@ double seconds_since(Clock::time_point t) {
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
 constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
-// A flow within this relative difference of the one a link was evaluated at reuses that
-// evaluation: h and dh/dQ then differ from exact by about 1e-13 relative, far below the
-// convergence tolerances.
-constexpr double kReuseRelativeFlow = 1e-13;
+// Partial update: a flow within this relative difference d of the one a link was last
+// evaluated at, Q0, takes h(Q) = h(Q0) + h'(Q0) (Q - Q0) from that evaluation instead of a new
+// one. The error is h''(Q0) (Q - Q0)^2 / 2, about d^2 h = 1e-16 h for a pipe (h'' is about
+// 2h/Q^2 in turbulent flow, 0 in laminar), the round-off of an exact evaluation; dh/dQ keeps its
+// value at Q0, 1e-8 relative off, which only the step's direction sees. Late iterations and the
+// flows that continuity fixes early take this path, with no Colebrook iteration.
+constexpr double kUpdateRelativeFlow = 1e-8;
 constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
@@ -55,7 +58,9 @@ class GradientSolver {
     return k >= first_chain_ ? chains_->evaluate(k - first_chain_, flow_m3s)
                              : evaluate_pipe(laws_[k], flow_m3s, &colebrook_x_[k]);
   }
-  void evaluate(const State& s);
+  // h and dh/dQ of every active link at s: from the last evaluation where the flow has barely
+  // moved (kUpdateRelativeFlow), unless `exact`.
+  void evaluate(const State& s, bool exact = false);
   ResidualNorms residuals(const State& s) {
     return compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_, active_,
                              &balance_, nullptr);
@@ -80,7 +85,8 @@ class GradientSolver {
   std::vector<int> direction_;  // +1, -1: one-way link; 0: two-way
   std::vector<double> demand_, headloss_, dh_dq_, conductance_;
   std::vector<double> colebrook_x_;  // per pipe: last Colebrook root, warm start of the next
-  std::vector<double> evaluated_flow_;  // per link: the flow headloss_ and dh_dq_ were evaluated at
+  std::vector<double> evaluated_flow_;  // per link: the flow of its last evaluation, Q0
+  std::vector<double> evaluated_loss_;  // per link: h(Q0); dh_dq_ holds h'(Q0)
   std::vector<double> balance_;         // per node: continuity residuals (workspace)
   Eigen::VectorXd rhs_, x_;
   SolveTiming timing_;
@@ -98,17 +104,15 @@ void GradientSolver::update_active_set() {
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) active_[k] = link_open_[k] && supplied_[from[k]];
 }
 
-void GradientSolver::evaluate(const State& s) {
+void GradientSolver::evaluate(const State& s, bool exact) {
   auto t = Clock::now();
   const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(laws_.size());
   // Each link's law is independent of the others, so large networks share the links among the
   // cores; the result does not depend on how they are shared. They are dealt in blocks, not
   // halves: the chains, each a sum over its pipes, all sit at the end of the list, and a
   // static split gave one core 2.3 times the other's work on tree-like networks.
-  // Partial update: a link whose flow is, to round-off, the flow its law was last evaluated at
-  // keeps that evaluation. After the first step this holds for every link outside the loops
-  // (continuity fixes those flows), which on tree-like networks is most of them. Valves are
-  // always evaluated, since their losses are overridden by their mode.
+  // Partial update (kUpdateRelativeFlow). Valves are always evaluated, since their losses are
+  // overridden by their mode.
   long long reused = 0, evaluated = 0;
 #pragma omp parallel for schedule(dynamic, 2048) if (links >= kParallelLinks) reduction(+ : reused, evaluated)
   for (std::ptrdiff_t k = 0; k < links; ++k) {
@@ -119,12 +123,14 @@ void GradientSolver::evaluate(const State& s) {
       continue;
     }
     const double q = s.flow[k];
-    if (!laws_[k].is_valve() && std::abs(q - evaluated_flow_[k]) <= kReuseRelativeFlow * std::abs(q)) {
+    const double moved = q - evaluated_flow_[k];
+    if (!exact && !laws_[k].is_valve() && std::abs(moved) <= kUpdateRelativeFlow * std::abs(q)) {
+      headloss_[k] = evaluated_loss_[k] + dh_dq_[k] * moved;
       ++reused;
       continue;
     }
     LinkEval e = evaluate_link(static_cast<std::size_t>(k), q);
-    headloss_[k] = e.headloss_m;
+    headloss_[k] = evaluated_loss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
     evaluated_flow_[k] = q;
     ++evaluated;
@@ -338,6 +344,7 @@ SolveResult GradientSolver::run() {
   dh_dq_.assign(links, 0.0);
   colebrook_x_.assign(links, 0.0);
   evaluated_flow_.assign(links, std::numeric_limits<double>::quiet_NaN());
+  evaluated_loss_.assign(links, 0.0);
   conductance_.assign(links, 0.0);
   rhs_.resize(cache_.plan.unknowns);
   if (!analysed) return finish(s, Termination::kLinearSolverFailed, "symbolic analysis failed");
@@ -424,7 +431,7 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
   const std::size_t links = net_.pipes.size();
 
   std::vector<double> node_res, link_res;
-  evaluate(s);
+  evaluate(s, true);  // what is reported comes from exact evaluations
   ResidualNorms norms = compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_,
                                           active_, &node_res, &link_res);
   sum.max_continuity_residual_m3s = norms.max_continuity_m3s;
