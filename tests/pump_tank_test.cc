@@ -21,9 +21,9 @@ constexpr double kFlowRelTol = 1e-8;
 Pipe pump_with(double speed) {
   Pipe p;
   p.kind = LinkKind::kPump;
-  p.curve.points = {{0.0, 60.0}, {0.040, 50.0}, {0.070, 35.0}};
-  REQUIRE(fit_pump_curve(&p.curve).empty());
-  p.speed = speed;
+  p.edit_control().curve.points = {{0.0, 60.0}, {0.040, 50.0}, {0.070, 35.0}};
+  REQUIRE(fit_pump_curve(&p.edit_control().curve).empty());
+  p.edit_control().speed = speed;
   return p;
 }
 
@@ -37,7 +37,7 @@ TEST_CASE("the pump's operating point is where its curve meets the system curve 
   for (const char* key : {"speed_1", "speed_0.9"}) {
     CAPTURE(key);
     Network net = testing::load("tests/networks/pump_lift.gln");
-    net.pipes[*net.find_pipe("PS1")].speed = std::string(key) == "speed_1" ? 1.0 : 0.9;
+    net.pipes[*net.find_pipe("PS1")].edit_control().speed = std::string(key) == "speed_1" ? 1.0 : 0.9;
     SolveResult r = solve(net);
     REQUIRE_MESSAGE(r.summary.converged(), r.summary.message);
     const std::size_t k = *net.find_pipe("PS1");
@@ -48,7 +48,7 @@ TEST_CASE("the pump's operating point is where its curve meets the system curve 
 
 TEST_CASE("a three-point fit passes through its points") {
   Pipe p = pump_with(1.0);
-  for (const auto& [q, h] : p.curve.points) {
+  for (const auto& [q, h] : p.control().curve.points) {
     CHECK(-evaluate_pipe(law_of(p), q).headloss_m == doctest::Approx(h).epsilon(1e-9));
   }
 }

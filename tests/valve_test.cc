@@ -46,7 +46,7 @@ TEST_CASE("a PRV whose upstream head is below its setting runs fully open, and s
   REQUIRE_MESSAGE(r.summary.converged(), r.summary.message);
   const std::size_t v = *net.find_pipe("V1");
   CHECK(r.links[v].valve_mode == ValveMode::kOpen);
-  CHECK(r.nodes[*net.find_node("B")].head_m < net.pipes[v].valve_head_m);
+  CHECK(r.nodes[*net.find_node("B")].head_m < net.pipes[v].control().valve_head_m);
   check_consistent(net, r);
 }
 
@@ -92,7 +92,7 @@ TEST_CASE("an FCV holds its flow, with the head loss of an independent calculati
 
 TEST_CASE("an FCV that cannot pass its flow runs open") {
   Network net = testing::load("tests/networks/fcv_line.gln");
-  net.pipes[*net.find_pipe("F1")].valve_flow_m3s = 0.5;  // far more than 40 m of head can drive
+  net.pipes[*net.find_pipe("F1")].edit_control().valve_flow_m3s = 0.5;  // far more than 40 m of head can drive
   SolveResult r = solve(net);
   REQUIRE_MESSAGE(r.summary.converged(), r.summary.message);
   CHECK(r.links[*net.find_pipe("F1")].valve_mode == ValveMode::kOpen);
@@ -137,7 +137,7 @@ TEST_CASE("the fixed-loss throttle's dh/dQ matches finite differences") {
   Pipe p;
   p.kind = LinkKind::kThrottle;
   p.diameter_m = 0.1;
-  p.valve_loss_m = 6.5;
+  p.edit_control().valve_loss_m = 6.5;
   PipeLaw law = make_pipe_law(p, {}, {}, 1e-8);
   for (double q : {-1e-3, 1e-5, 1e-4, 0.01}) {
     const double step = 1e-4 * std::abs(q);
@@ -158,7 +158,7 @@ TEST_CASE("3 pumps, 4 PRVs and 2 tanks converge from a cold start with consisten
     for (std::size_t k = 0; k < net.pipes.size(); ++k) {
       const Pipe& p = net.pipes[k];
       if (p.kind != LinkKind::kPrv || r.links[k].valve_mode != ValveMode::kActive) continue;
-      CHECK(std::abs(r.nodes[p.to].head_m - p.valve_head_m) < kSettingTol_m);
+      CHECK(std::abs(r.nodes[p.to].head_m - p.control().valve_head_m) < kSettingTol_m);
       CHECK(r.links[k].flow_m3s >= 0.0);
     }
   }

@@ -80,10 +80,55 @@ struct PumpCurve {
   std::vector<std::pair<double, double>> points;  // (Q m^3/s, H m) as given
 };
 
-// A link: a pipe, or a pump (which has no length or diameter of its own).
+// A value kept on the heap, and only once it is written: copies copy it, moves move the
+// pointer, and an empty box reads as T{}. For the fields only pumps and valves have, which
+// would otherwise widen the record of every plain pipe (most of a network's links), and with
+// it every pass over the links.
+template <typename T>
+class Boxed {
+ public:
+  Boxed() = default;
+  Boxed(const Boxed& other) : value_(other.value_ ? std::make_unique<T>(*other.value_) : nullptr) {}
+  Boxed(Boxed&&) noexcept = default;
+  Boxed& operator=(const Boxed& other) {
+    if (this != &other) value_ = other.value_ ? std::make_unique<T>(*other.value_) : nullptr;
+    return *this;
+  }
+  Boxed& operator=(Boxed&&) noexcept = default;
+
+  const T& get() const {
+    static const T empty{};
+    return value_ ? *value_ : empty;
+  }
+  T& edit() {
+    if (!value_) value_ = std::make_unique<T>();
+    return *value_;
+  }
+  bool empty() const { return !value_; }
+
+ private:
+  std::unique_ptr<T> value_;
+};
+
+// What only pumps and valves have.
+struct LinkControls {
+  // Pumps.
+  PumpCurve curve;
+  double speed = 1.0;                 // relative to the curve's speed
+  std::optional<double> efficiency;   // 0-1, for the shaft power
+  // Valves: PRV and PSV hold a head (downstream, upstream) given as a head or as a pressure at
+  // that node; FCV holds a flow; all have a diameter and open-mode loss coefficient `minor_k`;
+  // a throttle is a fixed loss K V^2/2g.
+  double valve_head_m = 0.0;     // PRV, PSV: the head held (resolved from a pressure setting)
+  double valve_flow_m3s = 0.0;   // FCV
+  double valve_loss_m = 0.0;     // throttle given as a fixed head loss (loss=), else 0
+};
+
+// A link: a pipe, or a pump (which has no length or diameter of its own), or a valve.
 struct Pipe {
   std::string id;
   LinkKind kind = LinkKind::kPipe;
+  LinkStatus status = LinkStatus::kOpen;
   std::size_t from = 0;  // index into Network::nodes
   std::size_t to = 0;
   double length_m = 0.0;
@@ -91,27 +136,18 @@ struct Pipe {
   std::optional<double> roughness_m;  // absolute roughness, Darcy-Weisbach
   std::optional<double> cfactor;      // Hazen-Williams C (dimensionless)
   double minor_k = 0.0;               // sum of minor-loss coefficients
-  LinkStatus status = LinkStatus::kOpen;
   bool check_valve = false;  // flow only from `from` to `to`
   bool resizable = false;    // marked for `gradeline size` (resize=yes)
-  // Pumps only.
-  PumpCurve curve;
-  double speed = 1.0;                 // relative to the curve's speed
-  std::optional<double> efficiency;   // 0-1, for the shaft power
+  Boxed<LinkControls> controls;  // pumps and valves: read with control(), write with edit_control()
+  SourceLocation where;
 
-  // Valves: PRV and PSV hold a head (downstream, upstream) given as a head or as a pressure at
-  // that node; FCV holds a flow; all have a diameter and open-mode loss coefficient `minor_k`;
-  // a throttle is a fixed loss K V^2/2g.
-  double valve_head_m = 0.0;     // PRV, PSV: the head held (resolved from a pressure setting)
-  double valve_flow_m3s = 0.0;   // FCV
-  double valve_loss_m = 0.0;     // throttle given as a fixed head loss (loss=), else 0
-
+  const LinkControls& control() const { return controls.get(); }
+  LinkControls& edit_control() { return controls.edit(); }
   bool is_pump() const { return kind == LinkKind::kPump; }
   bool is_valve() const { return kind != LinkKind::kPipe && kind != LinkKind::kPump; }
   bool is_control_valve() const {
     return kind == LinkKind::kPrv || kind == LinkKind::kPsv || kind == LinkKind::kFcv;
   }
-  SourceLocation where;
 };
 
 enum class HeadlossLaw { kDarcyWeisbach, kHazenWilliams };

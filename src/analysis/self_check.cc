@@ -34,11 +34,11 @@ std::string link_failure(const Network& net, const SolveResult& r, const SolveOp
   if (l.valve_mode == ValveMode::kActive) {
     // An active control valve holds its setting instead of obeying a loss law.
     const double tol_h = kSelfCheckSlack * 1e-6;
-    const double held = p.kind == LinkKind::kPrv ? r.nodes[p.to].head_m - p.valve_head_m
-                        : p.kind == LinkKind::kPsv ? r.nodes[p.from].head_m - p.valve_head_m
+    const double held = p.kind == LinkKind::kPrv ? r.nodes[p.to].head_m - p.control().valve_head_m
+                        : p.kind == LinkKind::kPsv ? r.nodes[p.from].head_m - p.control().valve_head_m
                                                    : 0.0;
     if (!(std::abs(held) <= tol_h) ||
-        (p.kind == LinkKind::kFcv && std::abs(l.flow_m3s - p.valve_flow_m3s) >
+        (p.kind == LinkKind::kFcv && std::abs(l.flow_m3s - p.control().valve_flow_m3s) >
                                          kSelfCheckSlack * options.continuity_tolerance_m3s)) {
       return std::string(link_kind_name(p.kind)) + " '" + p.id + "' does not hold its setting";
     }

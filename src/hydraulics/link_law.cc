@@ -13,8 +13,8 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
                       double hw_regularisation_flow_m3s) {
   PipeLaw p;
   if (pipe.is_pump()) {
-    const double s = pipe.speed;
-    const PumpCurve& c = pipe.curve;
+    const double s = pipe.control().speed;
+    const PumpCurve& c = pipe.control().curve;
     p.kind = LawKind::kPump;
     p.pump.gain_m = c.shutoff_head_m * s * s;
     p.pump.coefficient = c.coefficient * std::pow(s, 2.0 - c.exponent);
@@ -27,7 +27,7 @@ PipeLaw make_pipe_law(const Pipe& pipe, const HeadlossModel& model, const Fluid&
     p.area_m2 = kPi * d * d / 4.0;
     p.minor_coef = pipe.minor_k / (2.0 * kGravity_ms2 * p.area_m2 * p.area_m2);
     p.laminar_coef = kValveLinearResistance;
-    p.fixed_loss_m = pipe.valve_loss_m;
+    p.fixed_loss_m = pipe.control().valve_loss_m;
     return p;
   }
   const double d = pipe.diameter_m;

@@ -127,9 +127,9 @@ void ChangeApplier::modify(const Statement& s) {
   if (target == Target::kPipe && net_->pipes[index].is_pump()) {
     StatementOptions o(rest, {"speed", "efficiency", "status"}, file_, units_, &diagnostics_);
     Pipe& pump = net_->pipes[index];
-    if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) pump.speed = *v;
+    if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) pump.edit_control().speed = *v;
     if (auto v = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"})) {
-      pump.efficiency = v;
+      pump.edit_control().efficiency = v;
     }
     if (const std::string_view* status = o.find("status")) {
       if (*status == "on" || *status == "off") {

@@ -272,7 +272,7 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
     if (o.has("pressure") == o.has("head")) {
       o.error("valve '" + p.pipe.id + "': give the setting as pressure= or head=");
     } else if (o.has("head")) {
-      if (auto h = o.quantity("head", Dimension::kLength, kElevationRange)) p.pipe.valve_head_m = *h;
+      if (auto h = o.quantity("head", Dimension::kLength, kElevationRange)) p.pipe.edit_control().valve_head_m = *h;
     } else if (auto q = o.raw_quantity("pressure", Dimension::kPressure)) {
       p.valve_pressure = PendingPressure{q->value, q->is_head};  // resolved at the node later
     }
@@ -281,13 +281,13 @@ std::optional<PipeRead> read_valve(const Statement& s, const ReadContext& c) {
     if (p.pipe.kind != LinkKind::kThrottle) {
       o.error("loss= is for a throttle valve");
     } else if (auto v = o.quantity("loss", Dimension::kLength, {0.0, 1000.0, false, "1000 m"})) {
-      p.pipe.valve_loss_m = *v;
+      p.pipe.edit_control().valve_loss_m = *v;
     }
   }
   if (p.pipe.kind == LinkKind::kFcv) {
     if (!o.has("flow")) o.error("valve '" + p.pipe.id + "': missing required key 'flow'");
     if (auto q = o.quantity("flow", Dimension::kFlow, {0.0, 100.0, true, "100 m3/s"})) {
-      p.pipe.valve_flow_m3s = *q;
+      p.pipe.edit_control().valve_flow_m3s = *q;
     }
   }
   if (const std::string_view* status = o.find("status")) {
@@ -329,17 +329,17 @@ std::optional<PipeRead> read_pump(const Statement& s, const ReadContext& c) {
       }
       auto q = o.parse("curve", point.substr(0, colon), Dimension::kFlow, {0.0, 100.0, true, "100 m3/s"});
       auto h = o.parse("curve", point.substr(colon + 1), Dimension::kLength, {0.0, 5000.0, true, "5000 m"});
-      if (!q || !h) ok = false; else p.pipe.curve.points.emplace_back(*q, *h);
+      if (!q || !h) ok = false; else p.pipe.edit_control().curve.points.emplace_back(*q, *h);
       if (comma == std::string::npos) break;
       start = comma + 1;
     }
     if (ok) {
-      std::string why = fit_pump_curve(&p.pipe.curve);
+      std::string why = fit_pump_curve(&p.pipe.edit_control().curve);
       if (!why.empty()) o.error("pump '" + p.pipe.id + "': " + why);
     }
   }
-  if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) p.pipe.speed = *v;
-  p.pipe.efficiency = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"});
+  if (auto v = o.quantity("speed", Dimension::kDimensionless, {0.0, 3.0, false, "3"})) p.pipe.edit_control().speed = *v;
+  p.pipe.edit_control().efficiency = o.quantity("efficiency", Dimension::kDimensionless, {0.0, 1.0, false, "1"});
   if (const std::string_view* status = o.find("status")) {
     if (*status == "open" || *status == "on") {
       p.pipe.status = LinkStatus::kOpen;
@@ -404,7 +404,7 @@ bool settle_pipe(Pipe* pipe, const PipeEnds& e, const PipeDefaults& defaults, co
     // A pressure setting is held at the controlled node: downstream for a PRV, upstream for a
     // PSV; the valve holds the head elevation + pressure head there.
     const Node& at = net.nodes[pipe->kind == LinkKind::kPrv ? *to : *from];
-    pipe->valve_head_m = at.elevation_m + e.valve_pressure->to_head_m(net.fluid.density_kgm3);
+    pipe->edit_control().valve_head_m = at.elevation_m + e.valve_pressure->to_head_m(net.fluid.density_kgm3);
   }
   *valid = check_pipe(*pipe, net.headloss.law, given, d);
   return true;

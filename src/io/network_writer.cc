@@ -74,12 +74,12 @@ std::string write_network(const Network& net) {
   for (const Pipe& p : net.pipes) {
     if (p.is_pump()) {
       out << "pump " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id << " curve=";
-      for (std::size_t i = 0; i < p.curve.points.size(); ++i) {
-        out << (i ? "," : "") << with_unit(p.curve.points[i].first, "m3/s") << ":"
-            << with_unit(p.curve.points[i].second, "m");
+      for (std::size_t i = 0; i < p.control().curve.points.size(); ++i) {
+        out << (i ? "," : "") << with_unit(p.control().curve.points[i].first, "m3/s") << ":"
+            << with_unit(p.control().curve.points[i].second, "m");
       }
-      if (p.speed != 1.0) out << " speed=" << exact_number(p.speed);
-      if (p.efficiency) out << " efficiency=" << exact_number(*p.efficiency);
+      if (p.control().speed != 1.0) out << " speed=" << exact_number(p.control().speed);
+      if (p.control().efficiency) out << " efficiency=" << exact_number(*p.control().efficiency);
       if (p.status == LinkStatus::kClosed) out << " status=off";
       out << "\n";
       continue;
@@ -87,10 +87,10 @@ std::string write_network(const Network& net) {
     if (p.is_valve()) {
       out << "valve " << p.id << " " << net.nodes[p.from].id << " " << net.nodes[p.to].id
           << " type=" << link_kind_name(p.kind) << " diameter=" << with_unit(p.diameter_m, "m");
-      if (p.kind == LinkKind::kPrv || p.kind == LinkKind::kPsv) out << " head=" << with_unit(p.valve_head_m, "m");
-      if (p.kind == LinkKind::kFcv) out << " flow=" << with_unit(p.valve_flow_m3s, "m3/s");
+      if (p.kind == LinkKind::kPrv || p.kind == LinkKind::kPsv) out << " head=" << with_unit(p.control().valve_head_m, "m");
+      if (p.kind == LinkKind::kFcv) out << " flow=" << with_unit(p.control().valve_flow_m3s, "m3/s");
       if (p.minor_k != 0.0) out << " minor=" << exact_number(p.minor_k);
-      if (p.valve_loss_m != 0.0) out << " loss=" << with_unit(p.valve_loss_m, "m");
+      if (p.control().valve_loss_m != 0.0) out << " loss=" << with_unit(p.control().valve_loss_m, "m");
       if (p.status == LinkStatus::kClosed) out << " status=closed";
       out << "\n";
       continue;

@@ -128,12 +128,12 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
       j->field("head_gain_m", pp.head_gain_m);
       j->field("hydraulic_power_kW", pp.hydraulic_power_w * 1e-3);
       j->key("shaft_power_kW");
-      if (p.efficiency) j->value(pp.hydraulic_power_w / *p.efficiency * 1e-3); else j->null();
+      if (p.control().efficiency) j->value(pp.hydraulic_power_w / *p.control().efficiency * 1e-3); else j->null();
       j->field("on_curve", pp.on_curve);
     } else if (p.is_control_valve()) {
       j->field("mode", ls.open || ls.valve_mode != ValveMode::kClosed ? valve_mode_name(ls.valve_mode)
                                                                       : "closed");
-      j->field("setting", p.kind == LinkKind::kFcv ? p.valve_flow_m3s : p.valve_head_m);
+      j->field("setting", p.kind == LinkKind::kFcv ? p.control().valve_flow_m3s : p.control().valve_head_m);
       j->field("setting_unit", p.kind == LinkKind::kFcv ? "m3/s" : "m (head)");
     } else {
       j->field("mode", ls.open ? "open" : "closed");

@@ -22,7 +22,7 @@ inline PumpPoint pump_point(const Network& net, const Pipe& p, const LinkState& 
   }
   out.head_gain_m = -ls.headloss_m;
   out.hydraulic_power_w = net.fluid.density_kgm3 * kGravity_ms2 * ls.flow_m3s * out.head_gain_m;
-  out.on_curve = ls.flow_m3s >= 0.0 && ls.flow_m3s <= p.curve.max_curve_flow_m3s * p.speed * (1 + 1e-12);
+  out.on_curve = ls.flow_m3s >= 0.0 && ls.flow_m3s <= p.control().curve.max_curve_flow_m3s * p.control().speed * (1 + 1e-12);
   return out;
 }
 

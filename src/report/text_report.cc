@@ -40,13 +40,13 @@ std::string pumps_text(const Network& net, const SolveResult& r) {
     }
     const PumpPoint pp = pump_point(net, p, r.links[k]);
     char shaft[32] = "-";
-    if (p.efficiency && r.links[k].open) {
-      std::snprintf(shaft, sizeof shaft, "%.2f", pp.hydraulic_power_w / *p.efficiency * 1e-3);
+    if (p.control().efficiency && r.links[k].open) {
+      std::snprintf(shaft, sizeof shaft, "%.2f", pp.hydraulic_power_w / *p.control().efficiency * 1e-3);
     }
     appendf(&out, "  %-10s %-10s %-10s %10.3f %9.2f %9.2f %9s %6.2f  %s%s\n", p.id.c_str(),
             net.nodes[p.from].id.c_str(), net.nodes[p.to].id.c_str(),
             r.links[k].flow_m3s * flow.per_si, pp.head_gain_m * len.per_si,
-            pp.hydraulic_power_w * 1e-3, shaft, p.speed, pp.mode,
+            pp.hydraulic_power_w * 1e-3, shaft, p.control().speed, pp.mode,
             pp.on_curve ? "" : ", OUTSIDE CURVE RANGE");
   }
   return out;
@@ -68,9 +68,9 @@ std::string valves_text(const Network& net, const SolveResult& r) {
     const LinkState& ls = r.links[k];
     char setting[48] = "-";
     if (p.kind == LinkKind::kFcv) {
-      std::snprintf(setting, sizeof setting, "%.3f %s", p.valve_flow_m3s * flow.per_si, flow.name);
+      std::snprintf(setting, sizeof setting, "%.3f %s", p.control().valve_flow_m3s * flow.per_si, flow.name);
     } else if (p.kind != LinkKind::kThrottle) {
-      std::snprintf(setting, sizeof setting, "%.2f %s", p.valve_head_m * len.per_si, len.name);
+      std::snprintf(setting, sizeof setting, "%.2f %s", p.control().valve_head_m * len.per_si, len.name);
     }
     const char* mode = p.status == LinkStatus::kClosed ? "closed (by the file)"
                        : p.is_control_valve()          ? valve_mode_name(ls.valve_mode)

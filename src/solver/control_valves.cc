@@ -18,8 +18,8 @@ void ControlValves::override_losses(const std::vector<double>& head,
     if (mode_[k] != ValveMode::kActive) continue;
     const Pipe& p = net_.pipes[k];
     switch (p.kind) {
-      case LinkKind::kPrv: (*headloss)[k] = head[p.from] - p.valve_head_m; break;  // -> H_j - H_set
-      case LinkKind::kPsv: (*headloss)[k] = p.valve_head_m - head[p.to]; break;    // -> H_set - H_i
+      case LinkKind::kPrv: (*headloss)[k] = head[p.from] - p.control().valve_head_m; break;  // -> H_j - H_set
+      case LinkKind::kPsv: (*headloss)[k] = p.control().valve_head_m - head[p.to]; break;    // -> H_set - H_i
       default: (*headloss)[k] = head[p.from] - head[p.to]; break;                  // flow-fixed
     }
   }
@@ -28,7 +28,7 @@ void ControlValves::override_losses(const std::vector<double>& head,
 void ControlValves::fix_flows(std::vector<double>* flow) const {
   for (std::size_t k : valves_) {
     if (mode_[k] == ValveMode::kActive && net_.pipes[k].kind == LinkKind::kFcv) {
-      (*flow)[k] = net_.pipes[k].valve_flow_m3s;
+      (*flow)[k] = net_.pipes[k].control().valve_flow_m3s;
     }
   }
 }
@@ -44,7 +44,7 @@ void ControlValves::assemble(const AssemblyPlan& plan, const std::vector<char>& 
     const int u = plan.unknown_of_node[pinned];
     if (u < 0) continue;
     v[plan.diagonal_slot[u]] += kValvePinConductance;
-    (*rhs)[u] += kValvePinConductance * p.valve_head_m;
+    (*rhs)[u] += kValvePinConductance * p.control().valve_head_m;
   }
 }
 
@@ -54,11 +54,11 @@ void ControlValves::update_flows(const std::vector<char>& link_active,
     if (mode_[k] != ValveMode::kActive || !link_active[k]) continue;
     const Pipe& p = net_.pipes[k];
     if (p.kind == LinkKind::kPrv) {
-      (*flow)[k] += kValvePinConductance * (p.valve_head_m - head[p.to]);
+      (*flow)[k] += kValvePinConductance * (p.control().valve_head_m - head[p.to]);
     } else if (p.kind == LinkKind::kPsv) {
-      (*flow)[k] += kValvePinConductance * (head[p.from] - p.valve_head_m);
+      (*flow)[k] += kValvePinConductance * (head[p.from] - p.control().valve_head_m);
     } else {
-      (*flow)[k] = p.valve_flow_m3s;
+      (*flow)[k] = p.control().valve_flow_m3s;
     }
   }
 }
@@ -90,7 +90,7 @@ bool ControlValves::update_modes(const std::vector<char>& supplied, const std::v
     const Pipe& p = net_.pipes[k];
     if (p.status == LinkStatus::kClosed || changes_[k] >= kMaxValveModeChanges) continue;
     const bool up_ok = supplied[p.from], down_ok = supplied[p.to];
-    const double hi = head[p.from], hj = head[p.to], q = flow[k], set = p.valve_head_m;
+    const double hi = head[p.from], hj = head[p.to], q = flow[k], set = p.control().valve_head_m;
     const bool forward_drive = up_ok && (!down_ok || hi > hj + htol);
     ValveMode next = mode_[k];
     switch (p.kind) {
@@ -120,7 +120,7 @@ bool ControlValves::update_modes(const std::vector<char>& supplied, const std::v
         if (mode_[k] == ValveMode::kActive) {
           if (up_ok && down_ok && hi < hj - htol) next = ValveMode::kOpen;
         } else if (mode_[k] == ValveMode::kOpen) {
-          if (q > p.valve_flow_m3s + qtol) next = ValveMode::kActive;
+          if (q > p.control().valve_flow_m3s + qtol) next = ValveMode::kActive;
           else if (q < -qtol) next = ValveMode::kClosed;
         } else if (forward_drive) {
           next = ValveMode::kOpen;
@@ -142,7 +142,7 @@ bool ControlValves::consistent(const std::vector<char>& supplied, const std::vec
   for (std::size_t k : valves_) {
     const Pipe& p = net_.pipes[k];
     if (p.status == LinkStatus::kClosed || !supplied[p.from]) continue;
-    const double hi = head[p.from], hj = head[p.to], q = flow[k], set = p.valve_head_m;
+    const double hi = head[p.from], hj = head[p.to], q = flow[k], set = p.control().valve_head_m;
     const std::string name = std::string(link_kind_name(p.kind)) + " '" + p.id + "'";
     const ValveMode m = mode_[k];
     bool bad = false;
@@ -155,7 +155,7 @@ bool ControlValves::consistent(const std::vector<char>& supplied, const std::vec
       if (m == ValveMode::kOpen && hi < set - htol) bad = true;
     } else {
       if (m == ValveMode::kActive && hi < hj - htol) bad = true;
-      if (m == ValveMode::kOpen && q > p.valve_flow_m3s + qtol) bad = true;
+      if (m == ValveMode::kOpen && q > p.control().valve_flow_m3s + qtol) bad = true;
     }
     if (m == ValveMode::kClosed && supplied[p.to] && hi > hj + htol) {
       // Closed although forward flow would be wanted: below its setting downstream (PRV), above

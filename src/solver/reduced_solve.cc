@@ -99,12 +99,7 @@ void fill_core_network(const Network& net, const Reduction& r, Network* out) {
     q.status = p.status;
     q.check_valve = p.check_valve;
     q.resizable = p.resizable;
-    if (p.is_pump() || !q.curve.points.empty()) q.curve = p.curve;
-    q.speed = p.speed;
-    q.efficiency = p.efficiency;
-    q.valve_head_m = p.valve_head_m;
-    q.valve_flow_m3s = p.valve_flow_m3s;
-    q.valve_loss_m = p.valve_loss_m;
+    if (!p.controls.empty() || !q.controls.empty()) q.controls = p.controls;
   };
   const std::ptrdiff_t kept = static_cast<std::ptrdiff_t>(r.kept_links.size());
   const std::ptrdiff_t links = kept + static_cast<std::ptrdiff_t>(r.chains());
