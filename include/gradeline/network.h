@@ -39,51 +39,10 @@ struct SourceLocation {
   }
 };
 
-struct Node {
-  std::string id;
-  NodeKind kind = NodeKind::kJunction;
-  double elevation_m = 0.0;  // ground / pipe invert reference for pressure
-  double demand_m3s = 0.0;   // base demand, positive out of the network
-  std::string demand_category;  // empty: uncategorised
-  double head_m = 0.0;       // fixed hydraulic grade line, reservoirs and tanks
-  // Tanks (steady state): head = bottom (elevation_m) + level.
-  double level_m = 0.0;
-  double min_level_m = 0.0;
-  std::optional<double> max_level_m;
-  std::optional<double> tank_diameter_m;
-  std::optional<Point> at;
-  SourceLocation where;
-
-  bool is_fixed_head() const { return kind != NodeKind::kJunction; }
-  // A tank at or below its minimum level cannot supply: it may only receive.
-  bool receives_only() const { return kind == NodeKind::kTank && level_m <= min_level_m; }
-};
-
-// A process-wide copy of `name`, the same pointer for the same name, kept until the process
-// ends (the names are those of the files read, so they stay few). Thread-safe.
-const std::string* intern_file_name(std::string_view name);
-
-enum class LinkStatus { kOpen, kClosed };
-
-enum class LinkKind { kPipe, kPump, kPrv, kPsv, kFcv, kThrottle };
-
-const char* link_kind_name(LinkKind kind);  // "pipe", "pump", "prv", "psv", "fcv", "throttle"
-
-
-// A pump's head-flow curve at full speed, H = a - b Q^c (H in m, Q in m^3/s), fitted through the
-// points given. At relative speed s the affinity laws give H = a s^2 - b s^(2-c) Q^c.
-struct PumpCurve {
-  double shutoff_head_m = 0.0;  // a
-  double coefficient = 0.0;     // b
-  double exponent = 2.0;        // c
-  double max_curve_flow_m3s = 0.0;  // the largest flow of the points given (full speed)
-  std::vector<std::pair<double, double>> points;  // (Q m^3/s, H m) as given
-};
-
 // A value kept on the heap, and only once it is written: copies copy it, moves move the
-// pointer, and an empty box reads as T{}. For the fields only pumps and valves have, which
-// would otherwise widen the record of every plain pipe (most of a network's links), and with
-// it every pass over the links.
+// pointer, and an empty box reads as T{}. For the fields only a few kinds of element have
+// (pumps and valves, tanks), which would otherwise widen the record of every plain pipe and
+// junction, and with it every pass over the links and nodes.
 template <typename T>
 class Boxed {
  public:
@@ -108,6 +67,55 @@ class Boxed {
 
  private:
   std::unique_ptr<T> value_;
+};
+
+// What only tanks have (steady state): head = bottom (elevation_m) + level.
+struct TankLevels {
+  double level_m = 0.0;
+  double min_level_m = 0.0;
+  std::optional<double> max_level_m;
+  std::optional<double> tank_diameter_m;
+};
+
+struct Node {
+  std::string id;
+  NodeKind kind = NodeKind::kJunction;
+  double elevation_m = 0.0;  // ground / pipe invert reference for pressure
+  double demand_m3s = 0.0;   // base demand, positive out of the network
+  std::string demand_category;  // empty: uncategorised
+  double head_m = 0.0;       // fixed hydraulic grade line, reservoirs and tanks
+  Boxed<TankLevels> tank;    // tanks: read with levels(), write with edit_levels()
+  std::optional<Point> at;
+  SourceLocation where;
+
+  const TankLevels& levels() const { return tank.get(); }
+  TankLevels& edit_levels() { return tank.edit(); }
+  bool is_fixed_head() const { return kind != NodeKind::kJunction; }
+  // A tank at or below its minimum level cannot supply: it may only receive.
+  bool receives_only() const {
+    return kind == NodeKind::kTank && levels().level_m <= levels().min_level_m;
+  }
+};
+
+// A process-wide copy of `name`, the same pointer for the same name, kept until the process
+// ends (the names are those of the files read, so they stay few). Thread-safe.
+const std::string* intern_file_name(std::string_view name);
+
+enum class LinkStatus { kOpen, kClosed };
+
+enum class LinkKind { kPipe, kPump, kPrv, kPsv, kFcv, kThrottle };
+
+const char* link_kind_name(LinkKind kind);  // "pipe", "pump", "prv", "psv", "fcv", "throttle"
+
+
+// A pump's head-flow curve at full speed, H = a - b Q^c (H in m, Q in m^3/s), fitted through the
+// points given. At relative speed s the affinity laws give H = a s^2 - b s^(2-c) Q^c.
+struct PumpCurve {
+  double shutoff_head_m = 0.0;  // a
+  double coefficient = 0.0;     // b
+  double exponent = 2.0;        // c
+  double max_curve_flow_m3s = 0.0;  // the largest flow of the points given (full speed)
+  std::vector<std::pair<double, double>> points;  // (Q m^3/s, H m) as given
 };
 
 // What only pumps and valves have.

@@ -195,17 +195,18 @@ std::optional<Node> read_tank(const Statement& s, const ReadContext& c) {
   }
   const Range level_range{0.0, 1000.0, true, "1000 m"};
   if (auto z = o.quantity("bottom", Dimension::kLength, kElevationRange)) n.elevation_m = *z;
-  if (auto l = o.quantity("level", Dimension::kLength, level_range)) n.level_m = *l;
-  if (auto l = o.quantity("min_level", Dimension::kLength, level_range)) n.min_level_m = *l;
-  n.max_level_m = o.quantity("max_level", Dimension::kLength, level_range);
-  n.tank_diameter_m = o.quantity("diameter", Dimension::kLength, {0.0, 1000.0, false, "1000 m"});
-  if (n.max_level_m && n.level_m > *n.max_level_m) {
+  TankLevels& t = n.edit_levels();
+  if (auto l = o.quantity("level", Dimension::kLength, level_range)) t.level_m = *l;
+  if (auto l = o.quantity("min_level", Dimension::kLength, level_range)) t.min_level_m = *l;
+  t.max_level_m = o.quantity("max_level", Dimension::kLength, level_range);
+  t.tank_diameter_m = o.quantity("diameter", Dimension::kLength, {0.0, 1000.0, false, "1000 m"});
+  if (t.max_level_m && t.level_m > *t.max_level_m) {
     o.error("tank '" + n.id + "': level is above max_level");
   }
-  if (n.max_level_m && n.min_level_m > *n.max_level_m) {
+  if (t.max_level_m && t.min_level_m > *t.max_level_m) {
     o.error("tank '" + n.id + "': min_level is above max_level");
   }
-  n.head_m = n.elevation_m + n.level_m;
+  n.head_m = n.elevation_m + t.level_m;
   return n;
 }
 

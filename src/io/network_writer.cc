@@ -55,9 +55,9 @@ std::string write_network(const Network& net) {
   for (const Node& n : net.nodes) {
     if (n.kind == NodeKind::kTank) {
       out << "tank " << n.id << " bottom=" << with_unit(n.elevation_m, "m")
-          << " level=" << with_unit(n.level_m, "m") << " min_level=" << with_unit(n.min_level_m, "m");
-      if (n.max_level_m) out << " max_level=" << with_unit(*n.max_level_m, "m");
-      if (n.tank_diameter_m) out << " diameter=" << with_unit(*n.tank_diameter_m, "m");
+          << " level=" << with_unit(n.levels().level_m, "m") << " min_level=" << with_unit(n.levels().min_level_m, "m");
+      if (n.levels().max_level_m) out << " max_level=" << with_unit(*n.levels().max_level_m, "m");
+      if (n.levels().tank_diameter_m) out << " diameter=" << with_unit(*n.levels().tank_diameter_m, "m");
     } else if (n.is_fixed_head()) {
       out << "reservoir " << n.id << " head=" << with_unit(n.head_m, "m")
           << " elevation=" << with_unit(n.elevation_m, "m");

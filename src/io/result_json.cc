@@ -92,7 +92,7 @@ void write_result_json(const Network& net, const SolveResult& r, JsonStream* j,
                      : node.kind == NodeKind::kReservoir ? "reservoir"
                                                          : "node");
     if (node.kind == NodeKind::kTank) {
-      j->field("level_m", node.level_m);
+      j->field("level_m", node.levels().level_m);
       j->field("can_supply", !node.receives_only());
     }
     j->field("elevation_m", node.elevation_m);

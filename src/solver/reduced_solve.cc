@@ -78,10 +78,7 @@ void fill_core_network(const Network& net, const Reduction& r, Network* out) {
     m.elevation_m = n.elevation_m;
     m.demand_m3s = n.demand_m3s;
     m.head_m = n.head_m;
-    m.level_m = n.level_m;
-    m.min_level_m = n.min_level_m;
-    m.max_level_m = n.max_level_m;
-    m.tank_diameter_m = n.tank_diameter_m;
+    if (!n.tank.empty() || !m.tank.empty()) m.tank = n.tank;
   }
   resize_prefaulted(core.pipes, r.kept_links.size() + r.chains());
   auto copy = [&](std::size_t at, std::uint32_t k, std::uint32_t from, std::uint32_t to) {
