@@ -10,6 +10,21 @@ namespace {
 
 bool is_space(char c) { return c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v'; }
 
+// The lexer's classes of byte, from one table lookup: blanks (is_space), '#', '=' and the rest.
+enum CharKind : unsigned char { kOther, kBlank, kHash, kEquals };
+
+struct CharKinds {
+  CharKind of[256] = {};
+  constexpr CharKinds() {
+    for (unsigned char c : {' ', '\t', '\r', '\f', '\v'}) of[c] = kBlank;
+    of[static_cast<unsigned char>('#')] = kHash;
+    of[static_cast<unsigned char>('=')] = kEquals;
+  }
+};
+constexpr CharKinds kCharKinds;
+
+CharKind kind_of(char c) { return kCharKinds.of[static_cast<unsigned char>(c)]; }
+
 std::string_view trim(std::string_view s) {
   while (!s.empty() && is_space(s.front())) s.remove_prefix(1);
   while (!s.empty() && is_space(s.back())) s.remove_suffix(1);
@@ -90,46 +105,56 @@ LexResult lex_line(std::string_view line, int line_number, Statement* out) {
     result.error = "line is longer than " + std::to_string(kMaxLineLength) + " characters";
     return result;
   }
-  std::size_t hash = line.find('#');
-  if (hash != std::string_view::npos) line = line.substr(0, hash);
-  line = trim(line);
-  if (line.empty()) return result;
-  result.empty = false;
-
-  out->line = line_number;
-  out->keyword = {};
-  out->positional.clear();
-  out->options.clear();
-  out->rest = {};
-  std::size_t i = 0;
-  bool first = true;
-  while (i < line.size()) {
-    while (i < line.size() && is_space(line[i])) ++i;
-    if (i >= line.size()) break;
-    std::size_t j = i;
-    while (j < line.size() && !is_space(line[j])) ++j;
-    std::string_view field = line.substr(i, j - i);
-    if (first) {
-      out->keyword = field;
-      out->rest = trim(line.substr(j));
-      first = false;
-    } else {
-      std::size_t eq = field.find('=');
-      if (eq == std::string_view::npos) {
-        if (!out->options.empty()) {
-          result.error = "positional field '" + std::string(field) +
-                         "' after key=value pairs";
-          return result;
-        }
-        out->positional.emplace_back(field);
-      } else if (eq == 0) {
-        result.error = "'" + std::string(field) + "' has no key before '='";
-        return result;
-      } else {
-        out->options.emplace_back(field.substr(0, eq), field.substr(eq + 1));
-      }
+  // One pass over the line: fields end at a blank, and the first '#' ends the line.
+  const char* c = line.data();
+  const char* const end = c + line.size();
+  const char* keyword_end = nullptr;
+  // The text after the keyword up to the comment, trimmed (for `title`).
+  auto rest_from = [&](const char* from) {
+    const char* stop = from;
+    while (stop < end && *stop != '#') ++stop;
+    return trim(std::string_view(from, static_cast<std::size_t>(stop - from)));
+  };
+  while (true) {
+    while (c < end && kind_of(*c) == kBlank) ++c;
+    if (c == end || *c == '#') break;
+    const char* const field_start = c;
+    const char* eq = nullptr;
+    for (; c < end; ++c) {
+      const CharKind k = kind_of(*c);
+      if (k == kOther) continue;
+      if (k != kEquals) break;
+      if (eq == nullptr) eq = c;
     }
-    i = j;
+    const std::string_view field(field_start, static_cast<std::size_t>(c - field_start));
+    if (keyword_end == nullptr) {
+      result.empty = false;
+      out->line = line_number;
+      out->keyword = field;
+      out->positional.clear();
+      out->options.clear();
+      out->rest = {};
+      keyword_end = c;
+      continue;
+    }
+    if (eq == nullptr) {
+      if (!out->options.empty()) {
+        out->rest = rest_from(keyword_end);
+        result.error = "positional field '" + std::string(field) + "' after key=value pairs";
+        return result;
+      }
+      out->positional.emplace_back(field);
+    } else if (eq == field_start) {
+      out->rest = rest_from(keyword_end);
+      result.error = "'" + std::string(field) + "' has no key before '='";
+      return result;
+    } else {
+      const std::size_t at = static_cast<std::size_t>(eq - field_start);
+      out->options.emplace_back(field.substr(0, at), field.substr(at + 1));
+    }
+  }
+  if (keyword_end != nullptr) {
+    out->rest = trim(std::string_view(keyword_end, static_cast<std::size_t>(c - keyword_end)));
   }
   return result;
 }
