@@ -89,3 +89,23 @@ TEST_CASE("the Hazen-Williams regularisation is invisible at working flows") {
     CHECK(evaluate_pipe(p, q).headloss_m == doctest::Approx(exact).epsilon(1e-10));
   }
 }
+
+TEST_CASE("a first-order update over a relative flow change of kUpdateRelativeFlow is exact to round-off") {
+  // The partial update of the Newton loop (link_law.h): h(Q0) + h'(Q0) (Q - Q0) against a new
+  // evaluation at Q = Q0 (1 + d), in the laminar, transitional and turbulent ranges and under
+  // Hazen-Williams. Taylor's theorem bounds the difference by about d^2 |h| = 1e-16 |h|; a
+  // few units in the last place of the evaluation itself are allowed on top.
+  constexpr double kRoundOffRelTol = 1e-14;
+  auto check_update = [](const PipeLaw& p, double q0) {
+    const LinkEval at = evaluate_pipe(p, q0);
+    const double q = q0 * (1.0 + kUpdateRelativeFlow);
+    const double updated = at.headloss_m + at.dh_dq * (q - q0);
+    const double fresh = evaluate_pipe(p, q).headloss_m;
+    CAPTURE(q0);
+    CHECK(std::abs(updated - fresh) <= kRoundOffRelTol * std::abs(fresh));
+  };
+  const PipeLaw dw = law(HeadlossLaw::kDarcyWeisbach, 0.15, 2.5);
+  for (double q : {1e-5, 3e-4, 4.5e-4, 1e-2, 0.1, -3e-4, -0.1}) check_update(dw, q);
+  const PipeLaw hw = law(HeadlossLaw::kHazenWilliams, 0.2, 1.0);
+  for (double q : {1e-3, 0.05, -0.05}) check_update(hw, q);
+}

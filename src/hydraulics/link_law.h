@@ -81,6 +81,13 @@ struct LinkEval {
   FlowRegime regime = FlowRegime::kNone;
 };
 
+// Partial update: once a link's flow Q has moved from the flow Q0 of its last evaluation by
+// at most this relative difference d, h(Q) = h(Q0) + h'(Q0) (Q - Q0) may stand for a new
+// evaluation. The error, h''(Q0) (Q - Q0)^2 / 2, is about d^2 h = 1e-16 h for a pipe (h'' is
+// about 2h/Q^2 in turbulent flow, 0 in laminar), the round-off of an exact evaluation; dh/dQ
+// keeps its value at Q0, 1e-8 relative off, which only a Newton step's direction sees.
+inline constexpr double kUpdateRelativeFlow = 1e-8;
+
 // `colebrook_x`: optional per-pipe warm start of the Colebrook root (see colebrook_friction).
 LinkEval evaluate_pipe(const PipeLaw& law, double flow_m3s, double* colebrook_x = nullptr);
 

@@ -27,13 +27,6 @@ double seconds_since(Clock::time_point t) {
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
 constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
-// Partial update: a flow within this relative difference d of the one a link was last
-// evaluated at, Q0, takes h(Q) = h(Q0) + h'(Q0) (Q - Q0) from that evaluation instead of a new
-// one. The error is h''(Q0) (Q - Q0)^2 / 2, about d^2 h = 1e-16 h for a pipe (h'' is about
-// 2h/Q^2 in turbulent flow, 0 in laminar), the round-off of an exact evaluation; dh/dQ keeps its
-// value at Q0, 1e-8 relative off, which only the step's direction sees. Late iterations and the
-// flows that continuity fixes early take this path, with no Colebrook iteration.
-constexpr double kUpdateRelativeFlow = 1e-8;
 constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
