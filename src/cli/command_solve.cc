@@ -115,9 +115,10 @@ int run_solve(const SolveArgs& a, Streams io) {
     outcomes.push_back(run_case(net, c, a.flags.options(), criteria, &session,
                                 start_flows.empty() ? nullptr : &start_flows));
     const SolveSummary& s = outcomes.back().result.summary;
-    if (s.converged()) {
-      previous_flows.clear();
-      for (const LinkState& l : outcomes.back().result.links) previous_flows.push_back(l.flow_m3s);
+    if (s.converged() && &c != &cases.back()) {  // the next case starts from these flows
+      const std::vector<LinkState>& links = outcomes.back().result.links;
+      previous_flows.resize(links.size());
+      for (std::size_t k = 0; k < links.size(); ++k) previous_flows[k] = links[k].flow_m3s;
       previous_demand = demand;
     }
     if (a.timing) io.err << timing_text(s, parse_s);
