@@ -4,12 +4,13 @@
 #include <sstream>
 
 #include "hydraulics/link_law.h"
+#include "model/parallel.h"
 
 namespace gradeline {
 
 namespace {
 
-constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
+constexpr std::ptrdiff_t kParallelLinks = kParallelElements;
 
 // Why link k fails the check, or "" when it passes.
 std::string link_failure(const Network& net, const SolveResult& r, const SolveOptions& options,
@@ -78,9 +79,18 @@ SelfCheck check_result(const Network& net, const std::vector<double>& demand,
   // failing link in file order is the one reported, however they were shared.
   const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net.pipes.size());
   std::ptrdiff_t first = links;
-#pragma omp parallel for schedule(static) if (links >= kParallelLinks) reduction(min : first)
-  for (std::ptrdiff_t k = 0; k < links; ++k) {
-    if (k < first && !link_failure(net, r, options, static_cast<std::size_t>(k)).empty()) first = k;
+  auto fails = [&](std::ptrdiff_t k) {
+    return !link_failure(net, r, options, static_cast<std::size_t>(k)).empty();
+  };
+  if (links >= kParallelLinks) {
+#pragma omp parallel for schedule(static) reduction(min : first)
+    for (std::ptrdiff_t k = 0; k < links; ++k) {
+      if (k < first && fails(k)) first = k;
+    }
+  } else {
+    for (std::ptrdiff_t k = 0; k < links && first == links; ++k) {  // no OpenMP region
+      if (fails(k)) first = k;
+    }
   }
   if (first < links) return fail(link_failure(net, r, options, static_cast<std::size_t>(first)));
   std::vector<double> balance(net.nodes.size(), 0.0);

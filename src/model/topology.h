@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "gradeline/network.h"
+#include "model/parallel.h"
 
 namespace gradeline {
 
@@ -14,10 +15,6 @@ namespace gradeline {
 // links[offsets[n]] .. links[offsets[n + 1] - 1].
 // Also each link's end nodes and each node's fixed-head flag, in flat arrays, for the loops of
 // the solver that visit every link per iteration.
-// Loops over at least this many nodes or links run on every core; below it, starting the
-// threads costs more than they save.
-inline constexpr std::ptrdiff_t kParallelElements = 20000;
-
 struct Topology {
   std::vector<std::size_t> offsets;
   std::vector<std::size_t> links;

@@ -8,6 +8,7 @@
 #include "gradeline/prefault.h"
 #include "hydraulics/chain_law.h"
 #include "hydraulics/link_law.h"
+#include "model/parallel.h"
 #include "model/topology.h"
 #include "solver/assembly.h"
 #include "solver/control_valves.h"
@@ -26,7 +27,7 @@ double seconds_since(Clock::time_point t) {
 }
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
-constexpr std::ptrdiff_t kParallelLinks = 20000;  // below this, threads cost more than they save
+constexpr std::ptrdiff_t kParallelLinks = kParallelElements;
 constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
@@ -107,26 +108,32 @@ void GradientSolver::evaluate(const State& s, bool exact) {
   // Partial update (kUpdateRelativeFlow). Valves are always evaluated, since their losses are
   // overridden by their mode.
   long long reused = 0, evaluated = 0;
-#pragma omp parallel for schedule(dynamic, 2048) if (links >= kParallelLinks) reduction(+ : reused, evaluated)
-  for (std::ptrdiff_t k = 0; k < links; ++k) {
+  // Link k; the counts are the caller's (each core's own copies when shared).
+  auto link = [&](std::ptrdiff_t k, long long& reused_here, long long& evaluated_here) {
     if (!active_[k]) {
       headloss_[k] = 0.0;
       dh_dq_[k] = 0.0;
       evaluated_flow_[k] = std::numeric_limits<double>::quiet_NaN();
-      continue;
+      return;
     }
     const double q = s.flow[k];
     const double moved = q - evaluated_flow_[k];
     if (!exact && !laws_[k].is_valve() && std::abs(moved) <= kUpdateRelativeFlow * std::abs(q)) {
       headloss_[k] = evaluated_loss_[k] + dh_dq_[k] * moved;
-      ++reused;
-      continue;
+      ++reused_here;
+      return;
     }
     LinkEval e = evaluate_link(static_cast<std::size_t>(k), q);
     headloss_[k] = evaluated_loss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
     evaluated_flow_[k] = q;
-    ++evaluated;
+    ++evaluated_here;
+  };
+  if (links >= kParallelLinks) {
+#pragma omp parallel for schedule(dynamic, 2048) reduction(+ : reused, evaluated)
+    for (std::ptrdiff_t k = 0; k < links; ++k) link(k, reused, evaluated);
+  } else {
+    for (std::ptrdiff_t k = 0; k < links; ++k) link(k, reused, evaluated);  // no OpenMP region
   }
   timing_.reused_link_evaluations += reused;
   timing_.link_evaluations += evaluated;
@@ -139,10 +146,9 @@ bool GradientSolver::newton_step(State* next) {
   const std::size_t links = net_.pipes.size();
   const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
   for (int pass = 0; pass < 4; ++pass) {
-#pragma omp parallel for schedule(static) if (link_count >= kParallelLinks)
-    for (std::ptrdiff_t k = 0; k < link_count; ++k) {
+    for_each_index(link_count, [&](std::ptrdiff_t k) {
       conductance_[k] = active_[k] && !valves_.active(k) ? 1.0 / dh_dq_[k] : 0.0;
-    }
+    });
     assemble_matrix(conductance_, unsupplied_, &cache_.plan);
     if (!valves_.any() || !valves_.release_floating(cache_.plan, cache_.plan.matrix, supplied_)) break;
     evaluate(*next);  // an opened valve obeys its loss law from here on
@@ -184,15 +190,14 @@ bool GradientSolver::newton_step(State* next) {
     const int u = cache_.plan.unknown_of_node[n];
     if (u >= 0) next->head[n] = supplied_[n] ? x_[u] : 0.0;
   }
-#pragma omp parallel for schedule(static) if (link_count >= kParallelLinks)
-  for (std::ptrdiff_t k = 0; k < link_count; ++k) {
+  for_each_index(link_count, [&](std::ptrdiff_t k) {
     if (!active_[k]) {
       next->flow[k] = 0.0;
-      continue;
+      return;
     }
     const double dh = next->head[from[k]] - next->head[to[k]];
     next->flow[k] += conductance_[k] * (dh - headloss_[k]);
-  }
+  });
   if (valves_.any()) valves_.update_flows(active_, next->head, &next->flow);
   return true;
 }
@@ -270,11 +275,10 @@ SolveResult GradientSolver::run() {
   auto t = Clock::now();
   resize_prefaulted(laws_, links);
   const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
-#pragma omp parallel for schedule(static) if (link_count >= kParallelLinks)
-  for (std::ptrdiff_t k = 0; k < link_count; ++k) {
+  for_each_index(link_count, [&](std::ptrdiff_t k) {
     laws_[k] = make_pipe_law(net_.pipes[k], net_.headloss, net_.fluid,
                              options_.hw_regularisation_flow_m3s);
-  }
+  });
   const bool reuse = cache_.matches(net_);
   if (!reuse) cache_.topology = build_topology(net_);
   file_open_ = links_open_in_file(net_);
