@@ -49,6 +49,9 @@ struct LinkState {
   ValveMode valve_mode = ValveMode::kNone;  // control valves only
 };
 
+// Seconds per stage. The Newton stages (topology to assembly) are timed only when
+// SolveOptions::stage_timing is set (`solve --timing`) and are zero otherwise; the reduction,
+// recovery and total are always timed.
 struct SolveTiming {
   double topology_s = 0.0;
   double symbolic_s = 0.0;

@@ -100,6 +100,8 @@ int run_solve(const SolveArgs& a, Streams io) {
     io.err << "gradeline: error: " << why << "\n";
     return kExitInput;
   }
+  SolveOptions options = a.flags.options();
+  options.stage_timing = a.timing;
   std::vector<CaseOutcome> outcomes;
   SolverSession session;  // the cases share one symbolic analysis
   // Each case starts from the last solved case's flows, scaled by the ratio of their total
@@ -112,7 +114,7 @@ int run_solve(const SolveArgs& a, Streams io) {
     if (previous_demand > 0.0 && demand > 0.0) {
       for (double& q : start_flows) q *= demand / previous_demand;
     }
-    outcomes.push_back(run_case(net, c, a.flags.options(), criteria, &session,
+    outcomes.push_back(run_case(net, c, options, criteria, &session,
                                 start_flows.empty() ? nullptr : &start_flows));
     const SolveSummary& s = outcomes.back().result.summary;
     if (s.converged() && &c != &cases.back()) {  // the next case starts from these flows
