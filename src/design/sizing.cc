@@ -128,13 +128,14 @@ Evaluation Sizer::solve_design(const Design& d, Details* details) {
 // taking the step that saves most per metre of pressure margin it uses.
 // `frozen` pipes (those a kick just pushed up) keep their sizes.
 Design Sizer::greedy_descent(Design d, int frozen, int frozen2) {
+  Design t;  // each candidate in turn: assigned, not constructed, so no allocation per candidate
   for (;;) {
     const double margin = evaluate(d).margin_m;
     int best = -1;
     double best_score = -1.0;
     for (std::size_t i = 0; i < d.size(); ++i) {
       if (d[i] == 0 || static_cast<int>(i) == frozen || static_cast<int>(i) == frozen2) continue;
-      Design t = d;
+      t = d;
       --t[i];
       const Evaluation& e = evaluate(t);
       if (!e.feasible) continue;
@@ -153,13 +154,14 @@ Design Sizer::greedy_descent(Design d, int frozen, int frozen2) {
 // From the cheapest design, step pipes up one size until feasible, each time taking the step
 // that gains most margin per unit of cost.
 Design Sizer::greedy_ascent(Design d) {
+  Design t;  // each candidate in turn: assigned, not constructed, so no allocation per candidate
   while (!evaluate(d).feasible) {
     const double margin = evaluate(d).margin_m;
     int best = -1;
     double best_score = -std::numeric_limits<double>::infinity();
     for (std::size_t i = 0; i < d.size(); ++i) {
       if (d[i] + 1 >= static_cast<int>(options_[i].size())) continue;
-      Design t = d;
+      t = d;
       ++t[i];
       const double gain = evaluate(t).margin_m - margin;
       const double score = gain / std::max(cost(t) - cost(d), 1e-9);
@@ -177,6 +179,7 @@ Design Sizer::greedy_ascent(Design d) {
 // First-improvement search over single-pipe changes of any size and pair changes of up to
 // `reach` sizes each way, until no such move lowers the cost of a feasible design.
 Design Sizer::local_search(Design d) {
+  Design t;  // each candidate in turn: assigned, not constructed, so no allocation per candidate
   if (!evaluate(d).feasible) return d;
   const int reach = d.size() > 20 ? 1 : d.size() > 10 ? 3 : 14;
   bool improved = true;
@@ -185,7 +188,7 @@ Design Sizer::local_search(Design d) {
     const double current = cost(d);
     for (std::size_t i = 0; i < d.size() && !improved; ++i) {
       for (int j = 0; j < static_cast<int>(options_[i].size()) && !improved; ++j) {
-        Design t = d;
+        t = d;
         t[i] = j;
         if (cost(t) < current - 1e-9 && evaluate(t).feasible) {
           d = t;
@@ -197,7 +200,7 @@ Design Sizer::local_search(Design d) {
       for (std::size_t k = i + 1; k < d.size() && !improved; ++k) {
         for (int a = -reach; a <= reach && !improved; ++a) {
           for (int b = -reach; b <= reach && !improved; ++b) {
-            Design t = d;
+            t = d;
             t[i] += a;
             t[k] += b;
             if (t[i] < 0 || t[k] < 0 || t[i] >= static_cast<int>(options_[i].size()) ||
@@ -220,6 +223,7 @@ Design Sizer::local_search(Design d) {
 // either way; only moves that lower the cost are solved. This finds trades such as one main
 // up a size paying for two others down a size, which pair moves cannot reach.
 Design Sizer::triple_search(Design d) {
+  Design t;  // each candidate in turn: assigned, not constructed, so no allocation per candidate
   if (!evaluate(d).feasible) return d;
   const int n = static_cast<int>(d.size());
   const int reach = n > 12 ? 1 : 2;
@@ -234,7 +238,7 @@ Design Sizer::triple_search(Design d) {
             for (int b = -reach; b <= reach && !improved; ++b) {
               for (int c = -reach; c <= reach && !improved; ++c) {
                 if (a == 0 || b == 0 || c == 0) continue;  // pair moves cover those
-                Design t = d;
+                t = d;
                 t[i] += a;
                 t[j] += b;
                 t[k] += c;
