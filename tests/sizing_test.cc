@@ -6,6 +6,7 @@
 #include <iterator>
 #include <limits>
 
+#include "design/design_memo.h"
 #include "design/sizing.h"
 #include "io/change_set.h"
 #include "io/parser.h"
@@ -183,4 +184,26 @@ TEST_CASE("when no allowed size can meet the criteria, say so and give the best 
   CHECK(net.nodes[r.remaining[0].element].id == "A");  // the source head is too low for A
   REQUIRE(r.changes.size() == 1);
   CHECK(cat.items[r.changes[0].item].id == "S300");
+}
+
+TEST_CASE("the design memo finds every stored design after growing, and no other; values stay put") {
+  // 5,000 designs of 7 pipes (the table grows from 1,024 slots five times on the way), each
+  // stored with its own number; the address of the first value must not change.
+  DesignMemo<int> memo(7);
+  auto design = [](int n) {
+    std::vector<int> d(7);
+    for (int i = 0; i < 7; ++i) d[i] = (n >> (2 * i)) & 3;  // base-4 digits: all distinct
+    return d;
+  };
+  const int* first = &memo.insert(design(0), 0);
+  for (int n = 1; n < 5000; ++n) memo.insert(design(n), n);
+  CHECK(memo.size() == 5000);
+  CHECK(memo.find(design(0)) == first);
+  for (int n = 0; n < 5000; ++n) {
+    const int* v = memo.find(design(n));
+    REQUIRE(v != nullptr);
+    CHECK(*v == n);
+  }
+  CHECK(memo.find(design(5000)) == nullptr);
+  CHECK(memo.find(std::vector<int>{3, 3, 3, 3, 3, 3, 3}) == nullptr);  // 16383: never stored
 }

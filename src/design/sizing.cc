@@ -4,7 +4,8 @@
 #include <chrono>
 #include <cmath>
 #include <limits>
-#include <unordered_map>
+
+#include "design/design_memo.h"
 
 namespace gradeline {
 namespace {
@@ -61,7 +62,7 @@ class Sizer {
   const SizingProblem& problem_;
   Network work_;  // the network with the trial sizes
   std::vector<std::vector<SizeOption>> options_;
-  std::unordered_map<Design, Evaluation, DesignHash> memo_;
+  DesignMemo<Evaluation> memo_{problem_.pipes.size()};
   SolverSession session_;                          // one topology: analyse once
   std::vector<std::vector<double>> last_flows_;    // per case: warm start for the next trial
   long long solves_ = 0;
@@ -70,15 +71,14 @@ class Sizer {
 };
 
 const Evaluation& Sizer::evaluate(const Design& d) {
-  auto it = memo_.find(d);
-  if (it != memo_.end()) return it->second;
+  if (const Evaluation* known = memo_.find(d)) return *known;
   Evaluation e = solve_design(d, nullptr);
   if (e.feasible && cost(d) < best_cost_) {
     best_cost_ = cost(d);
     solves_to_best_ = solves_;
   }
   if (problem_.progress && solves_ % 200 == 0) problem_.progress(solves_, best_cost_);
-  return memo_.emplace(d, e).first->second;
+  return memo_.insert(d, e);
 }
 
 Evaluation Sizer::solve_design(const Design& d, Details* details) {
