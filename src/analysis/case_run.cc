@@ -33,7 +33,7 @@ bool select_cases(const Network& net, const std::string& selection,
 
 CaseOutcome run_case(const Network& net, const DemandCase& c, const SolveOptions& options,
                      const CriteriaOverride& o, SolverSession* session,
-                     const std::vector<double>* initial_flows) {
+                     const std::vector<double>* initial_flows, bool list_violations) {
   CaseOutcome out;
   out.demand_case = c;
   out.criteria = criteria_for(net, c.name);
@@ -51,7 +51,7 @@ CaseOutcome run_case(const Network& net, const DemandCase& c, const SolveOptions
       out.result.summary.message = "self-check failed: " + check.failure;
       return out;
     }
-    out.violations = find_violations(net, c.name, out.result, out.criteria);
+    if (list_violations) out.violations = find_violations(net, c.name, out.result, out.criteria);
   }
   return out;
 }

@@ -25,10 +25,13 @@ bool select_cases(const Network& network, const std::string& selection,
                   std::vector<DemandCase>* cases, std::string* error);
 
 // With a session, the symbolic analysis of earlier solves of the same topology is reused, and
-// `initial_flows_m3s` (when given) warm-starts the Newton iterations.
+// `initial_flows_m3s` (when given) warm-starts the Newton iterations. Without
+// `list_violations` the violations are left empty (a caller that judges the result itself,
+// as sizing does for each trial design, need not have them sorted and listed).
 CaseOutcome run_case(const Network& network, const DemandCase& demand_case,
                      const SolveOptions& options, const CriteriaOverride& override_criteria,
                      SolverSession* session = nullptr,
-                     const std::vector<double>* initial_flows_m3s = nullptr);
+                     const std::vector<double>* initial_flows_m3s = nullptr,
+                     bool list_violations = true);
 
 }  // namespace gradeline

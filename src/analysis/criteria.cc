@@ -12,37 +12,46 @@ bool has_criteria(const Criteria& c) {
 
 namespace {
 
+// A violation record is made only for a node that fails (a run over every node of a large
+// network, or over every trial design of a sizing search, mostly meets nodes that pass).
 void node_violations(std::size_t n, const std::string& case_name,
                      const SolveResult& r, const Criteria& c, std::vector<Violation>* out) {
   const NodeState& ns = r.nodes[n];
-  Violation v;
-  v.case_name = case_name;
-  v.element = n;
-  v.quantity = LimitQuantity::kPressure;
+  auto add = [&](LimitKind kind, double value, double limit, double margin, bool unsupplied) {
+    Violation v;
+    v.case_name = case_name;
+    v.element = n;
+    v.quantity = LimitQuantity::kPressure;
+    v.kind = kind;
+    v.value = value;
+    v.limit = limit;
+    v.margin = margin;
+    v.unsupplied = unsupplied;
+    out->push_back(std::move(v));
+  };
   if (!ns.supplied) {
     if (c.min_pressure_m && ns.demand_m3s > 0.0) {
-      v.kind = LimitKind::kMin;
-      v.value = std::numeric_limits<double>::quiet_NaN();
-      v.limit = *c.min_pressure_m;
-      v.margin = -std::numeric_limits<double>::infinity();
-      v.unsupplied = true;
-      out->push_back(v);
+      add(LimitKind::kMin, std::numeric_limits<double>::quiet_NaN(), *c.min_pressure_m,
+          -std::numeric_limits<double>::infinity(), true);
     }
     return;
   }
-  v.value = ns.pressure_m;
   if (c.min_pressure_m && ns.pressure_m < *c.min_pressure_m) {
-    v.kind = LimitKind::kMin;
-    v.limit = *c.min_pressure_m;
-    v.margin = ns.pressure_m - *c.min_pressure_m;
-    out->push_back(v);
+    add(LimitKind::kMin, ns.pressure_m, *c.min_pressure_m, ns.pressure_m - *c.min_pressure_m,
+        false);
   }
   if (c.max_pressure_m && ns.pressure_m > *c.max_pressure_m) {
-    v.kind = LimitKind::kMax;
-    v.limit = *c.max_pressure_m;
-    v.margin = *c.max_pressure_m - ns.pressure_m;
-    out->push_back(v);
+    add(LimitKind::kMax, ns.pressure_m, *c.max_pressure_m, *c.max_pressure_m - ns.pressure_m,
+        false);
   }
+}
+
+// Whether node n fails, with no record made.
+bool node_fails_quietly(std::size_t n, const SolveResult& r, const Criteria& c) {
+  const NodeState& ns = r.nodes[n];
+  if (!ns.supplied) return c.min_pressure_m && ns.demand_m3s > 0.0;
+  return (c.min_pressure_m && ns.pressure_m < *c.min_pressure_m) ||
+         (c.max_pressure_m && ns.pressure_m > *c.max_pressure_m);
 }
 
 }  // namespace
@@ -79,10 +88,18 @@ std::vector<Violation> find_violations(const Network& net, const std::string& ca
 }
 
 bool node_fails(const Network& net, std::size_t n, const SolveResult& r, const Criteria& c) {
-  if (net.nodes[n].is_fixed_head()) return false;
-  std::vector<Violation> v;
-  node_violations(n, "", r, c, &v);
-  return !v.empty();
+  return !net.nodes[n].is_fixed_head() && node_fails_quietly(n, r, c);
+}
+
+bool any_violation(const Network& net, const SolveResult& r, const Criteria& c) {
+  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    if (node_fails(net, n, r, c)) return true;
+  }
+  if (!c.max_velocity_ms) return false;
+  for (const LinkState& l : r.links) {
+    if (l.open && std::abs(l.velocity_ms) > *c.max_velocity_ms) return true;
+  }
+  return false;
 }
 
 }  // namespace gradeline

@@ -36,4 +36,7 @@ bool has_criteria(const Criteria& c);
 bool node_fails(const Network& network, std::size_t n, const SolveResult& result,
                 const Criteria& criteria);
 
+// True when find_violations would find any, found without listing or sorting them.
+bool any_violation(const Network& network, const SolveResult& result, const Criteria& criteria);
+
 }  // namespace gradeline

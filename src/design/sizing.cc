@@ -99,7 +99,9 @@ Evaluation Sizer::solve_design(const Design& d, Details* details) {
   for (std::size_t ci = 0; ci < problem_.cases.size(); ++ci) {
     const DemandCase& c = problem_.cases[ci];
     const std::vector<double>* warm = last_flows_[ci].empty() ? nullptr : &last_flows_[ci];
-    CaseOutcome o = run_case(work_, c, problem_.solve_options, problem_.criteria, &session_, warm);
+    // A trial's violations are listed only for the report; the search needs only whether any.
+    CaseOutcome o = run_case(work_, c, problem_.solve_options, problem_.criteria, &session_, warm,
+                             details != nullptr);
     solves_ += 1;
     if (!o.result.summary.converged()) {
       e.feasible = false;
@@ -115,7 +117,9 @@ Evaluation Sizer::solve_design(const Design& d, Details* details) {
       lowest = std::min(lowest, ns.pressure_m);
       if (o.criteria.min_pressure_m) e.margin_m = std::min(e.margin_m, ns.pressure_m - *o.criteria.min_pressure_m);
     }
-    if (!o.violations.empty()) e.feasible = false;
+    if (details ? !o.violations.empty() : any_violation(work_, o.result, o.criteria)) {
+      e.feasible = false;
+    }
     if (details) {
       details->min_pressure_m.emplace_back(c.name, lowest);
       details->violations.insert(details->violations.end(), o.violations.begin(), o.violations.end());
