@@ -53,8 +53,9 @@ class GradientSolver {
                              : evaluate_pipe(laws_[k], flow_m3s, &colebrook_x_[k]);
   }
   // h and dh/dQ of every active link at s: from the last evaluation where the flow has barely
-  // moved (kUpdateRelativeFlow), unless `exact`.
-  void evaluate(const State& s, bool exact = false);
+  // moved (kUpdateRelativeFlow), unless `exact`. With `report` (exact only), each plain link's
+  // Reynolds number, friction factor and regime are written to its LinkState there.
+  void evaluate(const State& s, bool exact = false, std::vector<LinkState>* report = nullptr);
   ResidualNorms residuals(const State& s) {
     return compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_, active_,
                              &balance_, nullptr);
@@ -106,7 +107,7 @@ void GradientSolver::update_active_set() {
   for (std::size_t k = 0; k < net_.pipes.size(); ++k) active_[k] = link_open_[k] && supplied_[from[k]];
 }
 
-void GradientSolver::evaluate(const State& s, bool exact) {
+void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>* report) {
   auto t = stage_clock();
   const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(laws_.size());
   // Each link's law is independent of the others, so large networks share the links among the
@@ -132,6 +133,12 @@ void GradientSolver::evaluate(const State& s, bool exact) {
       return;
     }
     LinkEval e = evaluate_link(static_cast<std::size_t>(k), q);
+    if (report != nullptr && static_cast<std::size_t>(k) < first_chain_) {
+      LinkState& ls = (*report)[k];
+      ls.reynolds = e.reynolds;
+      ls.friction_factor = e.friction_factor;
+      ls.regime = e.regime;
+    }
     headloss_[k] = evaluated_loss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
     evaluated_flow_[k] = q;
@@ -436,7 +443,8 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
   const std::size_t links = net_.pipes.size();
 
   std::vector<double> node_res, link_res;
-  evaluate(s, true);  // what is reported comes from exact evaluations
+  resize_prefaulted(result.links, links);
+  evaluate(s, true, &result.links);  // what is reported comes from exact evaluations
   ResidualNorms norms = compute_residuals(cache_.topology, s.flow, headloss_, s.head, demand_, supplied_,
                                           active_, &node_res, &link_res);
   sum.max_continuity_residual_m3s = norms.max_continuity_m3s;
@@ -457,7 +465,6 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     ns.pressure_pa = ns.pressure_m * net_.fluid.density_kgm3 * kGravity_ms2;
     if (!supplied_[n]) ++sum.unsupplied_nodes;
   }
-  resize_prefaulted(result.links, links);
   for (std::size_t k = 0; k < links; ++k) {
     LinkState& ls = result.links[k];
     ls.open = active_[k];
@@ -470,13 +477,10 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
       ls.headloss_m = headloss_[k];
       continue;
     }
-    LinkEval e = evaluate_pipe(laws_[k], s.flow[k], &colebrook_x_[k]);
+    // Reynolds number, friction factor and regime: written by the exact evaluation above.
     ls.velocity_ms = laws_[k].is_pump() ? 0.0 : s.flow[k] / laws_[k].area_m2;
     ls.headloss_m = valves_.active(k) ? s.head[net_.pipes[k].from] - s.head[net_.pipes[k].to]
-                                      : e.headloss_m;
-    ls.reynolds = e.reynolds;
-    ls.friction_factor = e.friction_factor;
-    ls.regime = e.regime;
+                                      : evaluated_loss_[k];
   }
 
   if (termination != Termination::kConverged && message.empty()) {
