@@ -14,7 +14,7 @@ namespace {
 
 using Clock = std::chrono::steady_clock;
 
-constexpr std::ptrdiff_t kParallelChains = 20000;  // below this, threads cost more than they save
+constexpr std::ptrdiff_t kParallelChains = kParallelElements;
 
 double seconds_since(Clock::time_point t) {
   return std::chrono::duration<double>(Clock::now() - t).count();
