@@ -87,3 +87,31 @@ TEST_CASE("limit errors: unknown case, missing bound, wrong quantity") {
         "net.gln:15: error: limit needs one field: pressure or velocity\n"
         "net.gln:13: error: limit for unknown case 'fire'\n");
 }
+
+TEST_CASE("any_violation answers as the list does, for each limit alone and with none") {
+  // The same solve judged under one limit at a time: a 1 m minimum is broken only by the
+  // unsupplied X (it has a demand), a 1 m maximum by every supplied junction, 0.1 m/s by the
+  // mains; loose limits, and none at all, by nothing.
+  Network net = parse_or_fail(kNetwork);
+  std::vector<DemandCase> cases;
+  std::string why;
+  REQUIRE(select_cases(net, "peak", &cases, &why));
+  const CaseOutcome o = run_case(net, cases[0], {}, {});
+  REQUIRE(o.result.summary.converged());
+  auto judged = [&](Criteria c) {
+    const bool listed = !find_violations(net, "peak", o.result, c).empty();
+    CHECK(any_violation(net, o.result, c) == listed);
+    return listed;
+  };
+  CHECK_FALSE(judged(Criteria{}));
+  Criteria low, high, fast, loose;
+  low.min_pressure_m = 1.0;  // only X, unsupplied with a demand
+  high.max_pressure_m = 1.0;
+  fast.max_velocity_ms = 0.1;
+  loose.max_pressure_m = 1000.0;
+  loose.max_velocity_ms = 100.0;
+  CHECK(judged(low));
+  CHECK(judged(high));
+  CHECK(judged(fast));
+  CHECK_FALSE(judged(loose));
+}

@@ -12,12 +12,16 @@ bool has_criteria(const Criteria& c) {
 
 namespace {
 
-// A violation record is made only for a node that fails (a run over every node of a large
-// network, or over every trial design of a sizing search, mostly meets nodes that pass).
-void node_violations(std::size_t n, const std::string& case_name,
-                     const SolveResult& r, const Criteria& c, std::vector<Violation>* out) {
+// Whether node n fails; each failure is recorded in `out` when it is not null. A record is made
+// only for a failure (a run over every node of a large network, or over every trial design of
+// a sizing search, mostly meets nodes that pass).
+bool node_violations(std::size_t n, const std::string& case_name, const SolveResult& r,
+                     const Criteria& c, std::vector<Violation>* out) {
   const NodeState& ns = r.nodes[n];
+  bool failed = false;
   auto add = [&](LimitKind kind, double value, double limit, double margin, bool unsupplied) {
+    failed = true;
+    if (out == nullptr) return;
     Violation v;
     v.case_name = case_name;
     v.element = n;
@@ -34,7 +38,7 @@ void node_violations(std::size_t n, const std::string& case_name,
       add(LimitKind::kMin, std::numeric_limits<double>::quiet_NaN(), *c.min_pressure_m,
           -std::numeric_limits<double>::infinity(), true);
     }
-    return;
+    return failed;
   }
   if (c.min_pressure_m && ns.pressure_m < *c.min_pressure_m) {
     add(LimitKind::kMin, ns.pressure_m, *c.min_pressure_m, ns.pressure_m - *c.min_pressure_m,
@@ -44,14 +48,7 @@ void node_violations(std::size_t n, const std::string& case_name,
     add(LimitKind::kMax, ns.pressure_m, *c.max_pressure_m, *c.max_pressure_m - ns.pressure_m,
         false);
   }
-}
-
-// Whether node n fails, with no record made.
-bool node_fails_quietly(std::size_t n, const SolveResult& r, const Criteria& c) {
-  const NodeState& ns = r.nodes[n];
-  if (!ns.supplied) return c.min_pressure_m && ns.demand_m3s > 0.0;
-  return (c.min_pressure_m && ns.pressure_m < *c.min_pressure_m) ||
-         (c.max_pressure_m && ns.pressure_m > *c.max_pressure_m);
+  return failed;
 }
 
 }  // namespace
@@ -88,7 +85,8 @@ std::vector<Violation> find_violations(const Network& net, const std::string& ca
 }
 
 bool node_fails(const Network& net, std::size_t n, const SolveResult& r, const Criteria& c) {
-  return !net.nodes[n].is_fixed_head() && node_fails_quietly(n, r, c);
+  static const std::string kNoCase;
+  return !net.nodes[n].is_fixed_head() && node_violations(n, kNoCase, r, c, nullptr);
 }
 
 bool any_violation(const Network& net, const SolveResult& r, const Criteria& c) {
