@@ -4,6 +4,8 @@
 #include <cmath>
 #include <limits>
 
+#include "model/parallel.h"
+
 namespace gradeline {
 
 bool has_criteria(const Criteria& c) {
@@ -56,13 +58,20 @@ bool node_violations(std::size_t n, const std::string& case_name, const SolveRes
 std::vector<Violation> find_violations(const Network& net, const std::string& case_name,
                                        const SolveResult& r, const Criteria& c) {
   std::vector<Violation> nodes, pipes;
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    if (!net.nodes[n].is_fixed_head()) node_violations(n, case_name, r, c, &nodes);
-  }
+  if (!has_criteria(c)) return nodes;
+  // The failing elements are found on every core, then recorded in order.
+  const std::vector<std::size_t> failing =
+      indices_where(static_cast<std::ptrdiff_t>(net.nodes.size()), [&](std::ptrdiff_t n) {
+        return node_fails(net, static_cast<std::size_t>(n), r, c);
+      });
+  for (std::size_t n : failing) node_violations(n, case_name, r, c, &nodes);
   if (c.max_velocity_ms) {
-    for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    const std::vector<std::size_t> fast =
+        indices_where(static_cast<std::ptrdiff_t>(net.pipes.size()), [&](std::ptrdiff_t k) {
+          return r.links[k].open && std::abs(r.links[k].velocity_ms) > *c.max_velocity_ms;
+        });
+    for (std::size_t k : fast) {
       const double speed = std::abs(r.links[k].velocity_ms);
-      if (!r.links[k].open || speed <= *c.max_velocity_ms) continue;
       Violation v;
       v.case_name = case_name;
       v.element = k;

@@ -93,16 +93,17 @@ SelfCheck check_result(const Network& net, const std::vector<double>& demand,
     }
   }
   if (first < links) return fail(link_failure(net, r, options, static_cast<std::size_t>(first)));
-  std::vector<double> balance(net.nodes.size(), 0.0);
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    balance[net.pipes[k].from] -= r.links[k].flow_m3s;
-    balance[net.pipes[k].to] += r.links[k].flow_m3s;
-  }
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+  const std::vector<double> balance = sum_by_index(
+      net.nodes.size(), links, [&](std::ptrdiff_t k, double* into) {
+        into[net.pipes[k].from] -= r.links[k].flow_m3s;
+        into[net.pipes[k].to] += r.links[k].flow_m3s;
+      });
+  // Why node n fails the check, or "" when it passes.
+  auto node_failure = [&](std::size_t n) -> std::string {
     const NodeState& ns = r.nodes[n];
-    if (net.nodes[n].is_fixed_head() || !ns.supplied) continue;
+    if (net.nodes[n].is_fixed_head() || !ns.supplied) return "";
     if (!std::isfinite(ns.head_m) || !std::isfinite(ns.pressure_pa)) {
-      return fail("node '" + net.nodes[n].id + "' has a non-finite head");
+      return "node '" + net.nodes[n].id + "' has a non-finite head";
     }
     const double c = balance[n] - demand[n];
     const double tolerance = kSelfCheckSlack * options.continuity_tolerance_m3s;
@@ -110,9 +111,15 @@ SelfCheck check_result(const Network& net, const std::vector<double>& demand,
       std::ostringstream m;
       m << "node '" << net.nodes[n].id << "' continuity residual " << c << " m3/s exceeds "
         << tolerance << " m3/s";
-      return fail(m.str());
+      return m.str();
     }
-  }
+    return "";
+  };
+  const std::vector<std::size_t> failing =
+      indices_where(static_cast<std::ptrdiff_t>(net.nodes.size()), [&](std::ptrdiff_t n) {
+        return !node_failure(static_cast<std::size_t>(n)).empty();
+      });
+  if (!failing.empty()) return fail(node_failure(failing.front()));
   return out;
 }
 

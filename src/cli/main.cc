@@ -1,11 +1,13 @@
 // gradeline: steady-state hydraulics of water distribution networks.
 #include <iostream>
 
+#include "cli/allocator.h"
 #include "cli/commands.h"
 #include "gradeline/version.h"
 
 int main(int argc, char** argv) {
   using namespace gradeline;
+  configure_allocator();
   CLI::App app{"gradeline: pressures and flows in water distribution networks"};
   app.set_version_flag("--version", std::string("gradeline ") + kVersion);
   app.require_subcommand(1);

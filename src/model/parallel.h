@@ -7,6 +7,7 @@
 #pragma once
 
 #include <cstddef>
+#include <vector>
 
 namespace gradeline {
 
@@ -25,6 +26,57 @@ void for_each_index(std::ptrdiff_t count, Body&& body) {
   } else {
     for (std::ptrdiff_t i = 0; i < count; ++i) body(i);
   }
+}
+
+// The indices i in [0, count) for which pred(i) holds, in increasing order. A report or a
+// check that scans a million elements for the few that need a line is then a parallel scan
+// and a short serial loop over what it found, with the same result as one serial loop.
+template <typename Pred>
+std::vector<std::size_t> indices_where(std::ptrdiff_t count, Pred&& pred) {
+  std::vector<std::size_t> out;
+  if (count < kParallelElements) {
+    for (std::ptrdiff_t i = 0; i < count; ++i) {
+      if (pred(i)) out.push_back(static_cast<std::size_t>(i));
+    }
+    return out;
+  }
+  // Contiguous parts, each found on one core, joined in order.
+  constexpr std::ptrdiff_t kParts = 16;
+  std::vector<std::size_t> found[kParts];
+  const std::ptrdiff_t per_part = (count + kParts - 1) / kParts;
+#pragma omp parallel for schedule(static)
+  for (std::ptrdiff_t part = 0; part < kParts; ++part) {
+    const std::ptrdiff_t end = count < (part + 1) * per_part ? count : (part + 1) * per_part;
+    for (std::ptrdiff_t i = part * per_part; i < end; ++i) {
+      if (pred(i)) found[part].push_back(static_cast<std::size_t>(i));
+    }
+  }
+  for (const std::vector<std::size_t>& f : found) out.insert(out.end(), f.begin(), f.end());
+  return out;
+}
+
+// Sums contributions indexed by element into `size` totals: add(i, totals) adds those of index
+// i in [0, count) to the array `totals`. From kParallelElements on, the first and the second
+// half of the indices add into separate arrays on two cores, summed after; below, one pass in
+// index order. Either way the order of the additions depends only on `count`, not on the
+// number of cores, so the totals are reproducible.
+template <typename Add>
+std::vector<double> sum_by_index(std::size_t size, std::ptrdiff_t count, Add&& add) {
+  std::vector<double> totals(size, 0.0);
+  if (count < kParallelElements) {
+    for (std::ptrdiff_t i = 0; i < count; ++i) add(i, totals.data());
+    return totals;
+  }
+  std::vector<double> second(size, 0.0);
+  const std::ptrdiff_t half = count / 2;
+#pragma omp parallel for schedule(static, 1)
+  for (int part = 0; part < 2; ++part) {
+    double* into = part == 0 ? totals.data() : second.data();
+    for (std::ptrdiff_t i = part == 0 ? 0 : half; i < (part == 0 ? half : count); ++i) add(i, into);
+  }
+  for_each_index(static_cast<std::ptrdiff_t>(size),
+                 [&](std::ptrdiff_t n) { totals[n] += second[n]; });
+  return totals;
 }
 
 }  // namespace gradeline

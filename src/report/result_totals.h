@@ -2,10 +2,12 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <vector>
 
 #include "gradeline/network.h"
 #include "gradeline/solve_summary.h"
+#include "model/parallel.h"
 
 namespace gradeline {
 
@@ -20,17 +22,29 @@ struct ResultTotals {
   std::vector<SourceFlow> sources;
 };
 
+// The sources are found, and the links at them, on every core; the flows are then summed in
+// link order for each source, as a single pass over every link would.
 inline ResultTotals result_totals(const Network& net, const SolveResult& r) {
   ResultTotals t;
-  std::vector<double> inflow(net.nodes.size(), 0.0);
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    inflow[net.pipes[k].from] += r.links[k].flow_m3s;
-    inflow[net.pipes[k].to] -= r.links[k].flow_m3s;
+  const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(net.nodes.size());
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net.pipes.size());
+  const std::vector<std::size_t> fixed =
+      indices_where(nodes, [&](std::ptrdiff_t n) { return net.nodes[n].is_fixed_head(); });
+  std::vector<std::uint32_t> source_of(net.nodes.size(), 0);  // 1 + position in t.sources
+  for (std::size_t n : fixed) {
+    t.sources.push_back({n, 0.0});
+    source_of[n] = static_cast<std::uint32_t>(t.sources.size());
+  }
+  const std::vector<std::size_t> at_sources = indices_where(links, [&](std::ptrdiff_t k) {
+    return source_of[net.pipes[k].from] != 0 || source_of[net.pipes[k].to] != 0;
+  });
+  for (std::size_t k : at_sources) {
+    if (const std::uint32_t s = source_of[net.pipes[k].from]) t.sources[s - 1].inflow_m3s += r.links[k].flow_m3s;
+    if (const std::uint32_t s = source_of[net.pipes[k].to]) t.sources[s - 1].inflow_m3s -= r.links[k].flow_m3s;
   }
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
-    if (net.nodes[n].is_fixed_head()) {
-      t.sources.push_back({n, inflow[n]});
-    } else if (r.nodes[n].supplied) {
+    if (source_of[n] != 0) continue;
+    if (r.nodes[n].supplied) {
       t.demand_m3s += r.nodes[n].demand_m3s;
     } else {
       t.undelivered_demand_m3s += r.nodes[n].demand_m3s;

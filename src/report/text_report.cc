@@ -5,6 +5,7 @@
 #include <cstdio>
 
 #include "gradeline/version.h"
+#include "model/parallel.h"
 #include "model/units.h"
 #include "report/pump_point.h"
 #include "report/result_totals.h"
@@ -143,9 +144,13 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
   std::string warnings;
   std::size_t unsupplied = 0, negative = 0, fast = 0, check_closed = 0;
   auto listed = [&](std::size_t* count) { return ++*count <= kMaxListed; };
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+  // The elements that may need a line are found on every core; the lines are written in order.
+  const std::vector<std::size_t> odd_nodes =
+      indices_where(static_cast<std::ptrdiff_t>(net.nodes.size()), [&](std::ptrdiff_t n) {
+        return !net.nodes[n].is_fixed_head() && (!r.nodes[n].supplied || r.nodes[n].pressure_m < 0.0);
+      });
+  for (std::size_t n : odd_nodes) {
     const NodeState& ns = r.nodes[n];
-    if (net.nodes[n].is_fixed_head()) continue;
     if (!ns.supplied) {
       if (listed(&unsupplied))
         appendf(&warnings, "  ! node %s has no open path to a source (unsupplied)\n",
@@ -157,7 +162,14 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
                 ns.pressure_m * len.per_si, len.name);
     }
   }
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+  const std::vector<std::size_t> odd_links =
+      indices_where(static_cast<std::ptrdiff_t>(net.pipes.size()), [&](std::ptrdiff_t k) {
+        const Pipe& p = net.pipes[k];
+        const LinkState& ls = r.links[k];
+        return std::abs(ls.velocity_ms) > kHighVelocity_ms || p.is_valve() || p.is_pump() ||
+               ls.closed_by_check_valve;
+      });
+  for (std::size_t k : odd_links) {
     const LinkState& ls = r.links[k];
     if (std::abs(ls.velocity_ms) > kHighVelocity_ms && listed(&fast)) {
       appendf(&warnings, "  ! %s %s velocity %.2f %s is above %.1f %s\n", link_kind_name(net.pipes[k].kind), net.pipes[k].id.c_str(),
