@@ -109,7 +109,8 @@ int run_solve(const SolveArgs& a, Streams io) {
   std::vector<double> previous_flows, start_flows;
   double previous_demand = 0.0;
   for (const DemandCase& c : cases) {
-    const double demand = total_demand(net, case_demands(net, c));
+    // Only a later case starts from an earlier one's flows.
+    const double demand = cases.size() > 1 ? total_demand(net, case_demands(net, c)) : 0.0;
     start_flows = previous_flows;
     if (previous_demand > 0.0 && demand > 0.0) {
       for (double& q : start_flows) q *= demand / previous_demand;

@@ -1,5 +1,7 @@
 #include "model/demand_cases.h"
 
+#include "model/parallel.h"
+
 namespace gradeline {
 
 std::vector<DemandCase> cases_of(const Network& net) {
@@ -11,15 +13,15 @@ std::vector<DemandCase> cases_of(const Network& net) {
 
 std::vector<double> case_demands(const Network& net, const DemandCase& c) {
   std::vector<double> q(net.nodes.size(), 0.0);
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+  for_each_index(static_cast<std::ptrdiff_t>(net.nodes.size()), [&](std::ptrdiff_t n) {
     const Node& node = net.nodes[n];
-    if (node.is_fixed_head()) continue;
+    if (node.is_fixed_head()) return;
     double factor = c.factor;
     for (const auto& [category, f] : c.category_factors) {
       if (category == node.demand_category) factor = f;
     }
     q[n] = factor * node.demand_m3s;
-  }
+  });
   for (const auto& [node, flow] : c.draws_m3s) q[node] += flow;
   return q;
 }

@@ -7,6 +7,7 @@
 #include "gradeline/prefault.h"
 #include "hydraulics/chain_law.h"
 #include "hydraulics/link_law.h"
+#include "model/parallel.h"
 #include "solver/newton.h"
 
 namespace gradeline {
@@ -238,11 +239,12 @@ SolveResult expand(const Network& net, const Topology& topology, const Reduction
   expand_trees(net, r, options, carried_m3s, &out); 
   // Residuals on the full network: continuity at every supplied junction, energy on every
   // eliminated link (the kept links keep the core's, which account for valve settings).
-  std::vector<double> balance(net.nodes.size(), 0.0);
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    balance[topology.from[k]] -= out.links[k].flow_m3s;
-    balance[topology.to[k]] += out.links[k].flow_m3s;
-  }
+  const std::vector<double> balance = sum_by_index(
+      net.nodes.size(), static_cast<std::ptrdiff_t>(net.pipes.size()),
+      [&](std::ptrdiff_t k, double* into) {
+        into[topology.from[k]] -= out.links[k].flow_m3s;
+        into[topology.to[k]] += out.links[k].flow_m3s;
+      });
   auto energy = [&](std::uint32_t k) {
     LinkState& ls = out.links[k];
     if (!ls.open) return;
