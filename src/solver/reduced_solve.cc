@@ -208,14 +208,20 @@ void expand_trees(const Network& net, const Reduction& r, const SolveOptions& op
 }
 
 // Spreads the core solution over the full network and recomputes the residuals there.
+// The records of a full-network result, every one default (a no-op when already so sized).
+void size_result(const Network& net, SolveResult* out) {
+  resize_prefaulted(out->nodes, net.nodes.size());
+  resize_prefaulted(out->links, net.pipes.size());
+}
+
+// `out` is sized by size_result (or empty).
 SolveResult expand(const Network& net, const Topology& topology, const Reduction& r,
                    const SolveOptions& options,
                    const std::vector<double>& demand, const std::vector<double>& carried_m3s, ChainLaws* chains,
-                   SolveResult&& core) {
-  SolveResult out;
+                   SolveResult&& core, SolveResult&& sized) {
+  SolveResult out = std::move(sized);
   out.summary = std::move(core.summary);
-  resize_prefaulted(out.nodes, net.nodes.size());
-  resize_prefaulted(out.links, net.pipes.size());
+  size_result(net, &out);
   const std::ptrdiff_t nodes = static_cast<std::ptrdiff_t>(net.nodes.size());
   const std::ptrdiff_t core_nodes = static_cast<std::ptrdiff_t>(r.core_nodes.size());
   const std::ptrdiff_t kept = static_cast<std::ptrdiff_t>(r.kept_links.size());
@@ -337,10 +343,22 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
                                          const std::vector<double>* initial_flows) {
   const auto start = Clock::now();
   std::vector<char> eliminable = eliminable_links(net);
+  SolveResult sized;  // the result's records, once sized
   if (!cache->reduction || !cache->reduction->matches(net, eliminable)) {
     auto rc = std::make_shared<ReductionCache>();
     rc->topology = build_link_ends(net);
-    rc->reduction = reduce_topology(net, rc->topology, eliminable);
+    // The reduction is one core's work: the other maps and fills the result's records.
+    if (net.pipes.size() >= static_cast<std::size_t>(kParallelElements)) {
+#pragma omp parallel sections num_threads(2)
+      {
+#pragma omp section
+        rc->reduction = reduce_topology(net, rc->topology, eliminable);
+#pragma omp section
+        size_result(net, &sized);
+      }
+    } else {
+      rc->reduction = reduce_topology(net, rc->topology, eliminable);
+    }
     rc->eliminable = std::move(eliminable);
     rc->worthwhile = rc->reduction.eliminated_nodes() > 0 &&
                      rc->reduction.eliminated_nodes() >= kMinReducedShare * net.nodes.size();
@@ -369,7 +387,8 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
   cache->analyses += rc.core.analyses - analyses_before; 
   const auto recovery_start = Clock::now();
   SolveResult out =
-      expand(net, rc.topology, r, options, demand, p.carried_m3s, &p.chains, std::move(core_result));
+      expand(net, rc.topology, r, options, demand, p.carried_m3s, &p.chains, std::move(core_result),
+             std::move(sized));
   out.summary.timing.recovery_s = seconds_since(recovery_start);
   ReductionSummary& rs = out.summary.reduction;
   rs.applied = true;
