@@ -64,6 +64,8 @@ class GradientSolver {
   void set_directions();
   bool update_check_valves(const State& s);
   bool check_valves_consistent(const State& s, std::string* why) const;
+  void analyse_pattern(bool reuse);
+  void start_state(State* s, ResidualNorms* norms);
   SolveResult finish(const State& s, Termination t, std::string message);
 
   const Network& net_;
@@ -284,6 +286,66 @@ bool GradientSolver::check_valves_consistent(const State& s, std::string* why) c
   return true;
 }
 
+// The symbolic side of a solve: AMD order, assembly plan and CHOLMOD's analysis, unless the
+// cache already holds them for this topology.
+void GradientSolver::analyse_pattern(bool reuse) {
+  const auto ts = stage_clock();
+  if (!reuse) {
+    // The pattern depends on the topology only: plan and analyse once, refactorise after.
+    // Renumber the junctions once by the postordered AMD order, then factorise as numbered.
+    const std::vector<int> order = junction_order(cache_.topology);
+    cache_.plan = plan_assembly(cache_.topology, order);
+    cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodAuto,
+                                           order.empty() ? Ordering::kAmd : Ordering::kNatural);
+    cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
+    cache_.remember(net_);
+    ++cache_.analyses;
+  }
+  timing_.symbolic_s = stage_seconds(ts);
+}
+
+// The starting state (a cold start, or the given flows) and its first evaluation.
+void GradientSolver::start_state(State* s, ResidualNorms* norms) {
+  const std::size_t nodes = net_.nodes.size();
+  const std::size_t links = net_.pipes.size();
+  s->flow.assign(links, 0.0);
+  s->head.assign(nodes, 0.0);
+  demand_.resize(nodes);
+  double mean_fixed = 0.0;
+  int fixed = 0;
+  for (std::size_t n = 0; n < nodes; ++n) {
+    demand_[n] = net_.nodes[n].is_fixed_head() ? 0.0 : given_demand_[n];
+    if (net_.nodes[n].is_fixed_head()) {
+      s->head[n] = net_.nodes[n].head_m;
+      mean_fixed += s->head[n];
+      ++fixed;
+    }
+  }
+  if (fixed > 0) mean_fixed /= fixed;
+  for (std::size_t n = 0; n < nodes; ++n) {
+    if (!net_.nodes[n].is_fixed_head()) s->head[n] = mean_fixed;
+  }
+  const bool warm = initial_flows_ != nullptr && initial_flows_->size() == links;
+  for (std::size_t k = 0; k < links; ++k) {
+    if (!active_[k]) continue;
+    s->flow[k] = warm ? (*initial_flows_)[k]
+                : k >= first_chain_ ? chains_->cold_start_flow(k - first_chain_, kInitialVelocity_ms)
+                                    : kInitialVelocity_ms * laws_[k].area_m2;
+    if (!warm && laws_[k].is_pump()) {  // start where the pump gives three quarters of its shut-off head
+      const PipeLaw& law = laws_[k];
+      s->flow[k] = std::pow(0.25 * law.pump.gain_m / law.pump.coefficient, 1.0 / law.pump.exponent);
+    }
+    if (warm && s->flow[k] == 0.0) s->flow[k] = 1e-3 * kInitialVelocity_ms * laws_[k].area_m2;
+  }
+  headloss_.assign(links, 0.0);
+  dh_dq_.assign(links, 0.0);
+  colebrook_x_.assign(links, 0.0);
+  evaluated_flow_.assign(links, std::numeric_limits<double>::quiet_NaN());
+  evaluated_loss_.assign(links, 0.0);
+  evaluate(*s);
+  *norms = residuals(*s);
+}
+
 SolveResult GradientSolver::run() {
   const std::size_t nodes = net_.nodes.size();
   const std::size_t links = net_.pipes.size();
@@ -312,70 +374,17 @@ SolveResult GradientSolver::run() {
   // timed on its own, so under --timing they overlap).
   State s;
   ResidualNorms norms;
-  auto analyse = [&] {
-    const auto ts = stage_clock();
-    if (!reuse) {
-      // The pattern depends on the topology only: plan and analyse once, refactorise after.
-      // Renumber the junctions once by the postordered AMD order, then factorise as numbered.
-      const std::vector<int> order = junction_order(cache_.topology);
-      cache_.plan = plan_assembly(cache_.topology, order);
-      cache_.cholesky = make_sparse_cholesky(CholeskyBackend::kCholmodAuto,
-                                             order.empty() ? Ordering::kAmd : Ordering::kNatural);
-      cache_.analysed = cache_.plan.unknowns == 0 || cache_.cholesky->analyze(cache_.plan.matrix);
-      cache_.remember(net_);
-      ++cache_.analyses;
-    }
-    timing_.symbolic_s = stage_seconds(ts);
-  };
-  auto start = [&] {
-    s.flow.assign(links, 0.0);
-    s.head.assign(nodes, 0.0);
-    demand_.resize(nodes);
-    double mean_fixed = 0.0;
-    int fixed = 0;
-    for (std::size_t n = 0; n < nodes; ++n) {
-      demand_[n] = net_.nodes[n].is_fixed_head() ? 0.0 : given_demand_[n];
-      if (net_.nodes[n].is_fixed_head()) {
-        s.head[n] = net_.nodes[n].head_m;
-        mean_fixed += s.head[n];
-        ++fixed;
-      }
-    }
-    if (fixed > 0) mean_fixed /= fixed;
-    for (std::size_t n = 0; n < nodes; ++n) {
-      if (!net_.nodes[n].is_fixed_head()) s.head[n] = mean_fixed;
-    }
-    const bool warm = initial_flows_ != nullptr && initial_flows_->size() == links;
-    for (std::size_t k = 0; k < links; ++k) {
-      if (!active_[k]) continue;
-      s.flow[k] = warm ? (*initial_flows_)[k]
-                  : k >= first_chain_ ? chains_->cold_start_flow(k - first_chain_, kInitialVelocity_ms)
-                                      : kInitialVelocity_ms * laws_[k].area_m2;
-      if (!warm && laws_[k].is_pump()) {  // start where the pump gives three quarters of its shut-off head
-        const PipeLaw& law = laws_[k];
-        s.flow[k] = std::pow(0.25 * law.pump.gain_m / law.pump.coefficient, 1.0 / law.pump.exponent);
-      }
-      if (warm && s.flow[k] == 0.0) s.flow[k] = 1e-3 * kInitialVelocity_ms * laws_[k].area_m2;
-    }
-    headloss_.assign(links, 0.0);
-    dh_dq_.assign(links, 0.0);
-    colebrook_x_.assign(links, 0.0);
-    evaluated_flow_.assign(links, std::numeric_limits<double>::quiet_NaN());
-    evaluated_loss_.assign(links, 0.0);
-    evaluate(s);
-    norms = residuals(s);
-  };
   if (link_count >= kParallelLinks) {
 #pragma omp parallel sections num_threads(2)
     {
 #pragma omp section
-      analyse();
+      analyse_pattern(reuse);
 #pragma omp section
-      start();
+      start_state(&s, &norms);
     }
   } else {  // no OpenMP region
-    analyse();
-    start();
+    analyse_pattern(reuse);
+    start_state(&s, &norms);
   }
   conductance_.assign(links, 0.0);
   rhs_.resize(cache_.plan.unknowns);
