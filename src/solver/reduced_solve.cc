@@ -207,14 +207,14 @@ void expand_trees(const Network& net, const Reduction& r, const SolveOptions& op
   }
 }
 
-// Spreads the core solution over the full network and recomputes the residuals there.
 // The records of a full-network result, every one default (a no-op when already so sized).
 void size_result(const Network& net, SolveResult* out) {
   resize_prefaulted(out->nodes, net.nodes.size());
   resize_prefaulted(out->links, net.pipes.size());
 }
 
-// `out` is sized by size_result (or empty).
+// Spreads the core solution over the full network and recomputes the residuals there.
+// `sized` is sized by size_result, or empty.
 SolveResult expand(const Network& net, const Topology& topology, const Reduction& r,
                    const SolveOptions& options,
                    const std::vector<double>& demand, const std::vector<double>& carried_m3s, ChainLaws* chains,
@@ -347,7 +347,8 @@ std::optional<SolveResult> solve_reduced(const Network& net, const SolveOptions&
   if (!cache->reduction || !cache->reduction->matches(net, eliminable)) {
     auto rc = std::make_shared<ReductionCache>();
     rc->topology = build_link_ends(net);
-    // The reduction is one core's work: the other maps and fills the result's records.
+    // The reduction is one core's work: the other maps and fills the result's records (wasted
+    // only where the reduction turns out not worthwhile, on grids, while the first core works).
     if (net.pipes.size() >= static_cast<std::size_t>(kParallelElements)) {
 #pragma omp parallel sections num_threads(2)
       {
