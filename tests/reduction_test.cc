@@ -3,8 +3,12 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <algorithm>
 #include <fstream>
 #include <nlohmann/json.hpp>
+#if defined(_OPENMP)
+#include <omp.h>
+#endif
 
 #include "analysis/self_check.h"
 #include "gradeline/solver.h"
@@ -390,4 +394,40 @@ TEST_CASE("after a reduced solve shared among the cores, the norms are those of 
   CHECK(r.summary.worst_energy_link == worst_link);
   CHECK(r.summary.unsupplied_nodes == unsupplied);
   CHECK(unsupplied > 0);  // the closed pipes cut some branches off
+}
+
+TEST_CASE("a large solve gives the same bits on one core as on several") {
+  // Every loop shared among the cores, and every stage run beside another, must leave the
+  // result independent of the thread count (DEVELOPERS.md): heads, flows and the summary's
+  // residuals are compared exactly, reduced and unreduced.
+#if defined(_OPENMP)
+  const Network net = random_tree_network();
+  const std::vector<double> demand = testing::base_demand(net);
+  const int threads = omp_get_max_threads();
+  for (bool reduced : {true, false}) {
+    CAPTURE(reduced);
+    omp_set_num_threads(1);
+    const SolveResult one = solve_with(net, reduced, demand);
+    omp_set_num_threads(std::max(2, threads));
+    const SolveResult many = solve_with(net, reduced, demand);
+    omp_set_num_threads(threads);
+    REQUIRE(one.summary.converged());
+    REQUIRE(many.summary.converged());
+    CHECK(one.summary.iterations == many.summary.iterations);
+    CHECK(one.summary.max_energy_residual_m == many.summary.max_energy_residual_m);
+    CHECK(one.summary.max_continuity_residual_m3s == many.summary.max_continuity_residual_m3s);
+    CHECK(one.summary.worst_energy_link == many.summary.worst_energy_link);
+    std::size_t differing = 0;
+    for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+      const double a = one.nodes[n].head_m, b = many.nodes[n].head_m;
+      differing += !(a == b || (std::isnan(a) && std::isnan(b)));
+    }
+    for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+      differing += one.links[k].flow_m3s != many.links[k].flow_m3s;
+    }
+    CHECK(differing == 0);
+  }
+#else
+  MESSAGE("built without OpenMP: one thread only");
+#endif
 }
