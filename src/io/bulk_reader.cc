@@ -30,21 +30,11 @@ bool read_line(std::string_view text, std::size_t index, LineKind kind, const Re
                Statement* s, Node* node, Pipe* pipe, PipeEnds* ends) {
   const LexResult lexed = lex_line(text, static_cast<int>(index) + 1, s);
   if (lexed.empty || !lexed.error.empty()) return false;
+  // Each slot is still as default-constructed: the element is read straight into it.
   if (kind == LineKind::kNode) {
-    if (s->keyword != "node") return false;
-    std::optional<Node> n = read_junction(*s, c);
-    if (!n || !c.diagnostics->empty()) return false;
-    *node = std::move(*n);
-    return true;
+    return s->keyword == "node" && read_junction_in_place(*s, c, node) && c.diagnostics->empty();
   }
-  if (s->keyword != "pipe") return false;
-  std::optional<PipeRead> p = read_pipe(*s, c);
-  if (!p || !c.diagnostics->empty()) return false;
-  *ends = ends_of(*p);
-  ends->from_id = s->positional[1];  // the same IDs, viewed in the text
-  ends->to_id = s->positional[2];
-  *pipe = std::move(p->pipe);
-  return true;
+  return s->keyword == "pipe" && read_pipe_in_place(*s, c, pipe, ends) && c.diagnostics->empty();
 }
 
 }  // namespace

@@ -109,75 +109,104 @@ void read_junction_keys(StatementOptions& o, Node* n) {
   }
 }
 
-std::optional<Node> read_junction(const Statement& s, const ReadContext& c) {
+bool read_junction_in_place(const Statement& s, const ReadContext& c, Node* n) {
   StatementOptions o(s, kJunctionKeys, c.file, c.units, c.diagnostics);
-  if (!read_ids(s, 1, "an ID", c)) return std::nullopt;
+  if (!read_ids(s, 1, "an ID", c)) return false;
+  n->id = s.positional[0];
+  n->where = {c.file_name, s.line};
+  if (!o.has("elevation")) o.error("node '" + n->id + "': missing required key 'elevation'");
+  read_junction_keys(o, n);
+  return true;
+}
+
+std::optional<Node> read_junction(const Statement& s, const ReadContext& c) {
   Node n;
-  n.id = s.positional[0];
-  n.where = {c.file_name, s.line};
-  if (!o.has("elevation")) o.error("node '" + n.id + "': missing required key 'elevation'");
-  read_junction_keys(o, &n);
+  if (!read_junction_in_place(s, c, &n)) return std::nullopt;
   return n;
 }
 
 const std::vector<std::string> kPipeKeys = {"length", "diameter", "roughness", "cfactor",
                                             "minor",  "status",   "check",     "resize"};
 
-void read_pipe_keys(StatementOptions& o, PipeRead* p) {
-  if (auto v = o.quantity("length", Dimension::kLength, kLengthRange)) p->pipe.length_m = *v;
-  if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) p->pipe.diameter_m = *v;
+namespace {
+
+// read_pipe_keys into *pipe, with the keys given noted in *given.
+void read_pipe_fields(StatementOptions& o, Pipe* pipe, PipeEnds* given) {
+  if (auto v = o.quantity("length", Dimension::kLength, kLengthRange)) pipe->length_m = *v;
+  if (auto v = o.quantity("diameter", Dimension::kDiameter, kDiameterRange)) pipe->diameter_m = *v;
   if (o.has("roughness")) {
-    p->roughness_given = true;
-    p->pipe.roughness_m = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange);
+    given->roughness_given = true;
+    pipe->roughness_m = o.quantity("roughness", Dimension::kRoughness, kRoughnessRange);
   }
   if (o.has("cfactor")) {
-    p->cfactor_given = true;
-    p->pipe.cfactor = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange);
+    given->cfactor_given = true;
+    pipe->cfactor = o.quantity("cfactor", Dimension::kDimensionless, kCfactorRange);
   }
   if (o.has("minor")) {
-    p->minor_given = true;
-    if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) p->pipe.minor_k = *v;
+    given->minor_given = true;
+    if (auto v = o.quantity("minor", Dimension::kDimensionless, kMinorRange)) pipe->minor_k = *v;
   }
   if (const std::string_view* status = o.find("status")) {
     if (*status == "open") {
-      p->pipe.status = LinkStatus::kOpen;
+      pipe->status = LinkStatus::kOpen;
     } else if (*status == "closed") {
-      p->pipe.status = LinkStatus::kClosed;
+      pipe->status = LinkStatus::kClosed;
     } else {
       o.error("status must be 'open' or 'closed', got '" + std::string(*status) + "'");
     }
   }
   if (const std::string_view* resize = o.find("resize")) {
     if (*resize == "yes" || *resize == "no") {
-      p->pipe.resizable = *resize == "yes";
+      pipe->resizable = *resize == "yes";
     } else {
       o.error("resize must be 'yes' or 'no', got '" + std::string(*resize) + "'");
     }
   }
   if (const std::string_view* check = o.find("check")) {
     if (*check == "yes" || *check == "no") {
-      p->pipe.check_valve = *check == "yes";
+      pipe->check_valve = *check == "yes";
     } else {
       o.error("check must be 'yes' or 'no', got '" + std::string(*check) + "'");
     }
   }
 }
 
-std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c) {
+}  // namespace
+
+void read_pipe_keys(StatementOptions& o, PipeRead* p) {
+  PipeEnds given;
+  read_pipe_fields(o, &p->pipe, &given);
+  p->roughness_given = p->roughness_given || given.roughness_given;
+  p->cfactor_given = p->cfactor_given || given.cfactor_given;
+  p->minor_given = p->minor_given || given.minor_given;
+}
+
+bool read_pipe_in_place(const Statement& s, const ReadContext& c, Pipe* pipe, PipeEnds* ends) {
   StatementOptions o(s, kPipeKeys, c.file, c.units, c.diagnostics);
-  if (!read_ids(s, 3, "ID FROM TO", c)) return std::nullopt;
-  PipeRead p;
-  p.pipe.id = s.positional[0];
-  p.from_id = s.positional[1];
-  p.to_id = s.positional[2];
-  p.pipe.where = {c.file_name, s.line};
+  if (!read_ids(s, 3, "ID FROM TO", c)) return false;
+  pipe->id = s.positional[0];
+  ends->from_id = s.positional[1];
+  ends->to_id = s.positional[2];
+  pipe->where = {c.file_name, s.line};
   for (const char* key : {"length", "diameter"}) {
-    if (!o.has(key)) o.error("pipe '" + p.pipe.id + "': missing required key '" + key + "'");
+    if (!o.has(key)) o.error("pipe '" + pipe->id + "': missing required key '" + key + "'");
   }
-  read_pipe_keys(o, &p);
-  if (p.from_id == p.to_id) {
-    o.error("pipe '" + p.pipe.id + "' connects node '" + p.from_id + "' to itself");
+  read_pipe_fields(o, pipe, ends);
+  if (ends->from_id == ends->to_id) {
+    o.error("pipe '" + pipe->id + "' connects node '" + std::string(ends->from_id) + "' to itself");
   }
+  return true;
+}
+
+std::optional<PipeRead> read_pipe(const Statement& s, const ReadContext& c) {
+  PipeRead p;
+  PipeEnds e;
+  if (!read_pipe_in_place(s, c, &p.pipe, &e)) return std::nullopt;
+  p.from_id = e.from_id;
+  p.to_id = e.to_id;
+  p.roughness_given = e.roughness_given;
+  p.cfactor_given = e.cfactor_given;
+  p.minor_given = e.minor_given;
   return p;
 }
 

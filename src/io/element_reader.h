@@ -96,6 +96,13 @@ struct PipeEnds {
 };
 PipeEnds ends_of(const PipeRead& p);
 
+// read_junction and read_pipe writing straight into a default-constructed element (and, for a
+// pipe, its ends, whose IDs then view the statement's line): the same element and the same
+// errors, without a temporary to build, move and destroy per line (the bulk reader's path).
+// False where the other returns nullopt.
+bool read_junction_in_place(const Statement& s, const ReadContext& c, Node* node);
+bool read_pipe_in_place(const Statement& s, const ReadContext& c, Pipe* pipe, PipeEnds* ends);
+
 // The part of add_pipe_to_network before the pipe joins the network: resolves the ends of
 // `pipe` in `net`, applies the defaults and checks it. Returns false when an end node is
 // unknown (the pipe cannot join); *valid is false when another check failed.
