@@ -198,9 +198,18 @@ void NetworkParser::read_placed(const std::vector<std::string_view>& lines,
   prefault_capacity(nodes);
   prefault_capacity(net_.pipes);
   prefault_capacity(ends_);
-  nodes.resize(kinds.node_lines);
-  net_.pipes.resize(kinds.link_lines);
-  ends_.resize(kinds.link_lines);
+  // The slots are default-constructed, the nodes beside the links (one core each: filling
+  // mapped pages computes little, but the two vectors share nothing).
+#pragma omp parallel sections num_threads(2) if (kinds.link_lines >= kBulkReadFromLines)
+  {
+#pragma omp section
+    nodes.resize(kinds.node_lines);
+#pragma omp section
+    {
+      net_.pipes.resize(kinds.link_lines);
+      ends_.resize(kinds.link_lines);
+    }
+  }
   const std::vector<LineKind>& kind = kinds.kinds;
   const std::size_t first = static_cast<std::size_t>(
       std::find_if(kind.begin(), kind.end(),
