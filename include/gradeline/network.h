@@ -6,6 +6,7 @@
 #pragma once
 
 #include <cstddef>
+#include <cstdint>
 #include <memory>
 #include <optional>
 #include <string>
@@ -101,9 +102,9 @@ struct Node {
 // ends (the names are those of the files read, so they stay few). Thread-safe.
 const std::string* intern_file_name(std::string_view name);
 
-enum class LinkStatus { kOpen, kClosed };
+enum class LinkStatus : std::uint8_t { kOpen, kClosed };
 
-enum class LinkKind { kPipe, kPump, kPrv, kPsv, kFcv, kThrottle };
+enum class LinkKind : std::uint8_t { kPipe, kPump, kPrv, kPsv, kFcv, kThrottle };
 
 const char* link_kind_name(LinkKind kind);  // "pipe", "pump", "prv", "psv", "fcv", "throttle"
 
@@ -137,6 +138,8 @@ struct Pipe {
   std::string id;
   LinkKind kind = LinkKind::kPipe;
   LinkStatus status = LinkStatus::kOpen;
+  bool check_valve = false;  // flow only from `from` to `to`
+  bool resizable = false;    // marked for `gradeline size` (resize=yes)
   std::size_t from = 0;  // index into Network::nodes
   std::size_t to = 0;
   double length_m = 0.0;
@@ -144,8 +147,6 @@ struct Pipe {
   std::optional<double> roughness_m;  // absolute roughness, Darcy-Weisbach
   std::optional<double> cfactor;      // Hazen-Williams C (dimensionless)
   double minor_k = 0.0;               // sum of minor-loss coefficients
-  bool check_valve = false;  // flow only from `from` to `to`
-  bool resizable = false;    // marked for `gradeline size` (resize=yes)
   Boxed<LinkControls> controls;  // pumps and valves: read with control(), write with edit_control()
   SourceLocation where;
 
