@@ -5,8 +5,8 @@
 // maps each block above 128 KiB (rising to 32 MiB as blocks are freed) straight from the
 // kernel and returns it on free, so the next large block is mapped afresh: every 4 KiB page is
 // faulted in and zeroed again. Measured at 10^6 "distribution" pipes: 248,000 page faults and
-// 0.33-0.39 s of system time by default; with large blocks kept in the heap and reused,
-// 201,000 faults, 0.26-0.29 s, and the wall time 3% lower, for 0.6% more peak memory
+// 0.34-0.36 s of system time by default; with large blocks kept in the heap and reused,
+// 201,000 faults, 0.27-0.30 s, and the wall time 1-2% lower, for 0.6% more peak memory
 // (docs/performance.md).
 #pragma once
 
