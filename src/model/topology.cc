@@ -103,9 +103,8 @@ Islands find_islands(const Network& net, const Topology& t, const std::vector<ch
 
 std::vector<char> links_open_in_file(const Network& net) {
   std::vector<char> open(net.pipes.size());
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    open[k] = net.pipes[k].status == LinkStatus::kOpen;
-  }
+  for_each_index(static_cast<std::ptrdiff_t>(net.pipes.size()),
+                 [&](std::ptrdiff_t k) { open[k] = net.pipes[k].status == LinkStatus::kOpen; });
   return open;
 }
 

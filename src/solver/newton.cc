@@ -100,13 +100,15 @@ class GradientSolver {
 };
 
 void GradientSolver::update_active_set() {
-  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
-    link_open_[k] = file_open_[k] && !cv_closed_[k] && !valves_.closed(k);
-  }
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net_.pipes.size());
+  for_each_index(links, [&](std::ptrdiff_t k) {
+    link_open_[k] = file_open_[k] && !cv_closed_[k] && !valves_.closed(static_cast<std::size_t>(k));
+  });
   supplied_ = find_supplied(net_, cache_.topology, link_open_);
-  for (std::size_t n = 0; n < net_.nodes.size(); ++n) unsupplied_[n] = !supplied_[n];
+  for_each_index(static_cast<std::ptrdiff_t>(net_.nodes.size()),
+                 [&](std::ptrdiff_t n) { unsupplied_[n] = !supplied_[n]; });
   const std::vector<std::uint32_t>& from = cache_.topology.from;
-  for (std::size_t k = 0; k < net_.pipes.size(); ++k) active_[k] = link_open_[k] && supplied_[from[k]];
+  for_each_index(links, [&](std::ptrdiff_t k) { active_[k] = link_open_[k] && supplied_[from[k]]; });
 }
 
 void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>* report) {
@@ -222,7 +224,12 @@ bool GradientSolver::newton_step(State* next) {
 // One-way links: check valves and pumps allow flow from `from` to `to` (direction +1); a link
 // at a tank that may only receive allows flow into the tank. Conflicting demands close it.
 void GradientSolver::set_directions() {
-  for (std::size_t k = 0; k < net_.pipes.size(); ++k) {
+  // Which nodes may only receive, in one pass over the nodes, so the pass over the links reads
+  // a byte per end instead of a whole node.
+  std::vector<char> receives(net_.nodes.size());
+  for_each_index(static_cast<std::ptrdiff_t>(net_.nodes.size()),
+                 [&](std::ptrdiff_t n) { receives[n] = net_.nodes[n].receives_only(); });
+  for_each_index(static_cast<std::ptrdiff_t>(net_.pipes.size()), [&](std::ptrdiff_t k) {
     const Pipe& p = net_.pipes[k];
     int forward = p.check_valve ? 1 : 0;
     int conflict = 0;
@@ -230,14 +237,14 @@ void GradientSolver::set_directions() {
       if (forward != 0 && forward != d) conflict = 1;
       forward = d;
     };
-    if (net_.nodes[p.to].receives_only()) require(1);
-    if (net_.nodes[p.from].receives_only()) require(-1);
+    if (receives[p.to]) require(1);
+    if (receives[p.from]) require(-1);
     direction_[k] = conflict ? 0 : forward;
     if (conflict) {
       cv_closed_[k] = 1;
       toggles_[k] = kMaxStatusToggles;  // stays closed
     }
-  }
+  });
 }
 
 bool GradientSolver::update_check_valves(const State& s) {
