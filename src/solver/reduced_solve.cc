@@ -24,25 +24,30 @@ double seconds_since(Clock::time_point t) {
 // Demands gathered down the branches (leaves first) and along the chains.
 void gather_demands(const Network& net, const Reduction& r, const std::vector<double>& demand,
                     CoreProblem* p) {
+  // The per-element steps on every core; the sums down the branches, in elimination order,
+  // and into the chains' end nodes, in chain order, on one.
   std::vector<double>& carried = p->carried_m3s;
   carried.resize(net.nodes.size());
-  for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+  for_each_index(static_cast<std::ptrdiff_t>(net.nodes.size()), [&](std::ptrdiff_t n) {
     carried[n] = net.nodes[n].is_fixed_head() ? 0.0 : demand[n];
-  }
+  });
   for (std::size_t i = 0; i < r.tree_link.size(); ++i) {
     carried[r.tree_parent[i]] += carried[r.tree_leaf[i]];
   }
   p->demand_m3s.resize(r.core_nodes.size());
-  for (std::size_t c = 0; c < r.core_nodes.size(); ++c) p->demand_m3s[c] = carried[r.core_nodes[c]];
+  for_each_index(static_cast<std::ptrdiff_t>(r.core_nodes.size()),
+                 [&](std::ptrdiff_t c) { p->demand_m3s[c] = carried[r.core_nodes[c]]; });
   p->chains.offset_m3s.resize(r.member_link.size());
-  for (std::size_t c = 0; c < r.chains(); ++c) {
-    double taken = 0.0;
+  std::vector<double> taken(r.chains());
+  for_each_index(static_cast<std::ptrdiff_t>(r.chains()), [&](std::ptrdiff_t c) {
+    double sum = 0.0;
     for (std::uint32_t i = r.chain_start[c]; i < r.chain_start[c + 1]; ++i) {
-      p->chains.offset_m3s[i] = taken;
-      if (i + 1 < r.chain_start[c + 1]) taken += carried[r.member_end[i]];
+      p->chains.offset_m3s[i] = sum;
+      if (i + 1 < r.chain_start[c + 1]) sum += carried[r.member_end[i]];
     }
-    p->demand_m3s[r.core_of_node[r.chain_to[c]]] += taken;
-  }
+    taken[c] = sum;
+  });
+  for (std::size_t c = 0; c < r.chains(); ++c) p->demand_m3s[r.core_of_node[r.chain_to[c]]] += taken[c];
 }
 
 void make_chain_laws(const Network& net, const Reduction& r, const SolveOptions& options,
