@@ -65,6 +65,7 @@ class GradientSolver {
   bool update_check_valves(const State& s);
   bool check_valves_consistent(const State& s, std::string* why) const;
   void analyse_pattern(bool reuse);
+  void prepare_links();
   void start_state(State* s, ResidualNorms* norms);
   SolveResult finish(const State& s, Termination t, std::string message);
 
@@ -311,6 +312,29 @@ void GradientSolver::analyse_pattern(bool reuse) {
   timing_.symbolic_s = stage_seconds(ts);
 }
 
+// Each link's law and status: open in the file, closed as a check valve, one-way; then the
+// active set. Timed as part of the topology stage.
+void GradientSolver::prepare_links() {
+  const auto t = stage_clock();
+  const std::size_t nodes = net_.nodes.size();
+  const std::size_t links = net_.pipes.size();
+  resize_prefaulted(laws_, links);
+  for_each_index(static_cast<std::ptrdiff_t>(links), [&](std::ptrdiff_t k) {
+    laws_[k] = make_pipe_law(net_.pipes[k], net_.headloss, net_.fluid,
+                             options_.hw_regularisation_flow_m3s);
+  });
+  file_open_ = links_open_in_file(net_);
+  cv_closed_.assign(links, 0);
+  toggles_.assign(links, 0);
+  direction_.assign(links, 0);
+  set_directions();
+  link_open_.assign(links, 0);
+  unsupplied_.assign(nodes, 0);
+  active_.assign(links, 0);
+  update_active_set();
+  timing_.topology_s += stage_seconds(t);
+}
+
 // The starting state (a cold start, or the given flows) and its first evaluation.
 void GradientSolver::start_state(State* s, ResidualNorms* norms) {
   const std::size_t nodes = net_.nodes.size();
@@ -356,29 +380,16 @@ void GradientSolver::start_state(State* s, ResidualNorms* norms) {
 SolveResult GradientSolver::run() {
   const std::size_t nodes = net_.nodes.size();
   const std::size_t links = net_.pipes.size();
-  auto t = stage_clock();
-  resize_prefaulted(laws_, links);
   const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
-  for_each_index(link_count, [&](std::ptrdiff_t k) {
-    laws_[k] = make_pipe_law(net_.pipes[k], net_.headloss, net_.fluid,
-                             options_.hw_regularisation_flow_m3s);
-  });
+  const auto t = stage_clock();
   const bool reuse = cache_.matches(net_);
   if (!reuse) cache_.topology = build_topology(net_);
-  file_open_ = links_open_in_file(net_);
-  cv_closed_.assign(links, 0);
-  toggles_.assign(links, 0);
-  direction_.assign(links, 0);
-  set_directions();
-  link_open_.assign(links, 0);
-  unsupplied_.assign(nodes, 0);
-  active_.assign(links, 0);
-  update_active_set();
   timing_.topology_s = stage_seconds(t);
 
-  // The symbolic analysis needs the topology only, the starting state and its first evaluation
-  // the laws only: on large networks one core analyses while the other evaluates (each stage
-  // timed on its own, so under --timing they overlap).
+  // The symbolic analysis needs the topology only; the laws, the links' statuses, the starting
+  // state and its first evaluation need the topology and the laws only. On large networks one
+  // core analyses while the other does the rest (each stage timed on its own, so under
+  // --timing they overlap).
   State s;
   ResidualNorms norms;
   if (link_count >= kParallelLinks) {
@@ -387,10 +398,14 @@ SolveResult GradientSolver::run() {
 #pragma omp section
       analyse_pattern(reuse);
 #pragma omp section
-      start_state(&s, &norms);
+      {
+        prepare_links();
+        start_state(&s, &norms);
+      }
     }
   } else {  // no OpenMP region
     analyse_pattern(reuse);
+    prepare_links();
     start_state(&s, &norms);
   }
   conductance_.assign(links, 0.0);
