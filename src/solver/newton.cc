@@ -165,34 +165,54 @@ bool GradientSolver::newton_step(State* next) {
   auto t = stage_clock();
   const std::size_t links = net_.pipes.size();
   const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
-  for (int pass = 0; pass < 4; ++pass) {
+  const std::vector<std::uint32_t>& from = cache_.topology.from;
+  const std::vector<std::uint32_t>& to = cache_.topology.to;
+  // rhs = -demand + B^T (C (h(Q) - B0 H0) - Q), in one pass over the links.
+  auto assemble_rhs = [&] {
+    rhs_.setZero();
+    for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
+      const int u = cache_.plan.unknown_of_node[n];
+      if (u >= 0 && supplied_[n]) rhs_[u] = -demand_[n];
+    }
+    for (std::size_t k = 0; k < links; ++k) {
+      if (!active_[k]) continue;
+      const int a = cache_.plan.unknown_of_node[from[k]];
+      const int b = cache_.plan.unknown_of_node[to[k]];
+      double y = headloss_[k];  // h(Q) - B0 H0
+      if (a < 0) y -= next->head[from[k]];
+      if (b < 0) y += next->head[to[k]];
+      const double contribution = conductance_[k] * y - next->flow[k];
+      if (a >= 0) rhs_[a] += contribution;
+      if (b >= 0) rhs_[b] -= contribution;
+    }
+  };
+  auto set_conductances = [&] {
     for_each_index(link_count, [&](std::ptrdiff_t k) {
       conductance_[k] = active_[k] && !valves_.active(k) ? 1.0 / dh_dq_[k] : 0.0;
     });
-    assemble_matrix(conductance_, unsupplied_, &cache_.plan);
-    if (!valves_.any() || !valves_.release_floating(cache_.plan, cache_.plan.matrix, supplied_)) break;
-    evaluate(*next);  // an opened valve obeys its loss law from here on
+  };
+  if (!valves_.any() && link_count >= kParallelLinks) {
+    // The matrix and the right-hand side are each one pass over the links, reading the
+    // conductances and writing nothing the other reads: one core each.
+    set_conductances();
+#pragma omp parallel sections num_threads(2)
+    {
+#pragma omp section
+      assemble_matrix(conductance_, unsupplied_, &cache_.plan);
+#pragma omp section
+      assemble_rhs();
+    }
+  } else {
+    for (int pass = 0; pass < 4; ++pass) {
+      set_conductances();
+      assemble_matrix(conductance_, unsupplied_, &cache_.plan);
+      if (!valves_.any() || !valves_.release_floating(cache_.plan, cache_.plan.matrix, supplied_)) break;
+      evaluate(*next);  // an opened valve obeys its loss law from here on
+    }
+    if (valves_.any()) valves_.fix_flows(&next->flow);
+    assemble_rhs();
+    if (valves_.any()) valves_.assemble(cache_.plan, active_, &rhs_, &cache_.plan.matrix);
   }
-  if (valves_.any()) valves_.fix_flows(&next->flow);
-  rhs_.setZero();
-  for (std::size_t n = 0; n < net_.nodes.size(); ++n) {
-    const int u = cache_.plan.unknown_of_node[n];
-    if (u >= 0 && supplied_[n]) rhs_[u] = -demand_[n];
-  }
-  const std::vector<std::uint32_t>& from = cache_.topology.from;
-  const std::vector<std::uint32_t>& to = cache_.topology.to;
-  for (std::size_t k = 0; k < links; ++k) {
-    if (!active_[k]) continue;
-    const int a = cache_.plan.unknown_of_node[from[k]];
-    const int b = cache_.plan.unknown_of_node[to[k]];
-    double y = headloss_[k];  // h(Q) - B0 H0
-    if (a < 0) y -= next->head[from[k]];
-    if (b < 0) y += next->head[to[k]];
-    const double contribution = conductance_[k] * y - next->flow[k];
-    if (a >= 0) rhs_[a] += contribution;
-    if (b >= 0) rhs_[b] -= contribution;
-  }
-  if (valves_.any()) valves_.assemble(cache_.plan, active_, &rhs_, &cache_.plan.matrix);
   timing_.assembly_s += stage_seconds(t);
 
   if (cache_.plan.unknowns > 0) {  // with only fixed-head nodes there is no system to solve
