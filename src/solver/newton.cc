@@ -1,5 +1,6 @@
 #include "solver/newton.h"
 
+#include <algorithm>
 #include <chrono>
 #include <cmath>
 #include <limits>
@@ -524,7 +525,8 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
 
   resize_prefaulted(result.nodes, nodes);
   const double nan = std::numeric_limits<double>::quiet_NaN();
-  for (std::size_t n = 0; n < nodes; ++n) {
+  // Each record on its own, on every core for large networks.
+  for_each_index(static_cast<std::ptrdiff_t>(nodes), [&](std::ptrdiff_t n) {
     NodeState& ns = result.nodes[n];
     const Node& node = net_.nodes[n];
     ns.supplied = supplied_[n];
@@ -533,25 +535,26 @@ SolveResult GradientSolver::finish(const State& s, Termination termination, std:
     ns.head_m = supplied_[n] ? s.head[n] : nan;
     ns.pressure_m = ns.head_m - node.elevation_m;
     ns.pressure_pa = ns.pressure_m * net_.fluid.density_kgm3 * kGravity_ms2;
-    if (!supplied_[n]) ++sum.unsupplied_nodes;
-  }
-  for (std::size_t k = 0; k < links; ++k) {
+  });
+  sum.unsupplied_nodes = static_cast<std::size_t>(std::count(supplied_.begin(), supplied_.end(), 0));
+  for_each_index(static_cast<std::ptrdiff_t>(links), [&](std::ptrdiff_t i) {
+    const std::size_t k = static_cast<std::size_t>(i);
     LinkState& ls = result.links[k];
     ls.open = active_[k];
     ls.closed_by_check_valve = cv_closed_[k];
     ls.valve_mode = valves_.mode(k);
     ls.energy_residual_m = link_res[k];
-    if (!active_[k]) continue;
+    if (!active_[k]) return;
     ls.flow_m3s = s.flow[k];
     if (k >= first_chain_) {  // a chain: its pipes are reported by the recovery, not here
       ls.headloss_m = headloss_[k];
-      continue;
+      return;
     }
     // Reynolds number, friction factor and regime: written by the exact evaluation above.
     ls.velocity_ms = laws_[k].is_pump() ? 0.0 : s.flow[k] / laws_[k].area_m2;
     ls.headloss_m = valves_.active(k) ? s.head[net_.pipes[k].from] - s.head[net_.pipes[k].to]
                                       : evaluated_loss_[k];
-  }
+  });
 
   if (termination != Termination::kConverged && message.empty()) {
     std::ostringstream m;
