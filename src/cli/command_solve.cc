@@ -8,6 +8,7 @@
 #include <sstream>
 
 #include "cli/commands.h"
+#include "cli/keep_until_exit.h"
 #include "io/network_writer.h"
 #include "io/result_json.h"
 #include "model/demand_cases.h"
@@ -103,7 +104,7 @@ int run_solve(const SolveArgs& a, Streams io) {
   SolveOptions options = a.flags.options();
   options.stage_timing = a.timing;
   std::vector<CaseOutcome> outcomes;
-  SolverSession session;  // the cases share one symbolic analysis
+  auto session = std::make_unique<SolverSession>();  // the cases share one symbolic analysis
   // Each case starts from the last solved case's flows, scaled by the ratio of their total
   // demands (exact in branches when a case scales every demand alike).
   std::vector<double> previous_flows, start_flows;
@@ -115,7 +116,7 @@ int run_solve(const SolveArgs& a, Streams io) {
     if (previous_demand > 0.0 && demand > 0.0) {
       for (double& q : start_flows) q *= demand / previous_demand;
     }
-    outcomes.push_back(run_case(net, c, options, criteria, &session,
+    outcomes.push_back(run_case(net, c, options, criteria, session.get(),
                                 start_flows.empty() ? nullptr : &start_flows));
     const SolveSummary& s = outcomes.back().result.summary;
     if (s.converged() && &c != &cases.back()) {  // the next case starts from these flows
@@ -147,6 +148,11 @@ int run_solve(const SolveArgs& a, Streams io) {
                                                      [&](JsonStream* j) { cases_json(net, outcomes, j); })) {
     return kExitInput;
   }
+  // The output is written: the network, the results and the solver's caches are left to the
+  // process's exit rather than freed element by element.
+  keep_until_exit(std::move(outcomes));
+  keep_until_exit(std::move(session));
+  keep_until_exit(std::move(net));
   return violated ? kExitCriteria : kExitOk;
 }
 
