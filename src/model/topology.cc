@@ -3,27 +3,25 @@
 namespace gradeline {
 
 Topology build_topology(const Network& net) {
-  Topology t;
-  const std::size_t n = net.nodes.size();
-  t.offsets.assign(n + 1, 0);
-  for (const Pipe& p : net.pipes) {
-    ++t.offsets[p.from + 1];
-    ++t.offsets[p.to + 1];
-  }
-  for (std::size_t i = 0; i < n; ++i) t.offsets[i + 1] += t.offsets[i];
-  t.links.resize(t.offsets[n]);
-  std::vector<std::size_t> next(t.offsets.begin(), t.offsets.end() - 1);
-  t.from.resize(net.pipes.size());
-  t.to.resize(net.pipes.size());
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
-    t.links[next[net.pipes[k].from]++] = k;
-    t.links[next[net.pipes[k].to]++] = k;
-    t.from[k] = static_cast<std::uint32_t>(net.pipes[k].from);
-    t.to[k] = static_cast<std::uint32_t>(net.pipes[k].to);
-  }
-  t.fixed_head.resize(n);
-  for (std::size_t i = 0; i < n; ++i) t.fixed_head[i] = net.nodes[i].is_fixed_head();
+  Topology t = build_link_ends(net);
+  add_incidence(&t);
   return t;
+}
+
+void add_incidence(Topology* t) {
+  const std::size_t n = t->fixed_head.size();
+  t->offsets.assign(n + 1, 0);
+  for (std::size_t k = 0; k < t->from.size(); ++k) {
+    ++t->offsets[t->from[k] + 1];
+    ++t->offsets[t->to[k] + 1];
+  }
+  for (std::size_t i = 0; i < n; ++i) t->offsets[i + 1] += t->offsets[i];
+  t->links.resize(t->offsets[n]);
+  std::vector<std::size_t> next(t->offsets.begin(), t->offsets.end() - 1);
+  for (std::size_t k = 0; k < t->from.size(); ++k) {
+    t->links[next[t->from[k]]++] = k;
+    t->links[next[t->to[k]]++] = k;
+  }
 }
 
 Topology build_link_ends(const Network& net) {

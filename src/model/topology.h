@@ -26,6 +26,9 @@ Topology build_topology(const Network& network);
 // Only the flat link ends and fixed-head flags (offsets and links left empty), for passes that
 // need no incidence lists.
 Topology build_link_ends(const Network& network);
+// The incidence lists (offsets, links) of a topology whose link ends are filled: the links at
+// each node in increasing order. build_topology is build_link_ends, then this.
+void add_incidence(Topology* topology);
 
 // supplied[n] is 1 when node n reaches a fixed-head node through links whose link_open is 1.
 std::vector<char> find_supplied(const Network& network, const Topology& topology,

@@ -404,11 +404,11 @@ SolveResult GradientSolver::run() {
   const std::ptrdiff_t link_count = static_cast<std::ptrdiff_t>(links);
   const auto t = stage_clock();
   const bool reuse = cache_.matches(net_);
-  if (!reuse) cache_.topology = build_topology(net_);
+  if (!reuse) cache_.topology = build_link_ends(net_);  // the incidence lists follow below
   timing_.topology_s = stage_seconds(t);
 
-  // The symbolic analysis needs the topology only; the laws, the links' statuses, the starting
-  // state and its first evaluation need the topology and the laws only. On large networks one
+  // The symbolic analysis needs the link ends only; the incidence lists, the laws, the links'
+  // statuses, the starting state and its first evaluation need nothing the analysis writes. On large networks one
   // core analyses while the other does the rest (each stage timed on its own, so under
   // --timing they overlap).
   State s;
@@ -420,12 +420,14 @@ SolveResult GradientSolver::run() {
       analyse_pattern(reuse);
 #pragma omp section
       {
+        if (!reuse) add_incidence(&cache_.topology);  // the analysis reads only the link ends
         prepare_links();
         start_state(&s, &norms);
       }
     }
   } else {  // no OpenMP region
     analyse_pattern(reuse);
+    if (!reuse) add_incidence(&cache_.topology);
     prepare_links();
     start_state(&s, &norms);
   }
