@@ -98,28 +98,27 @@ SelfCheck check_result(const Network& net, const std::vector<double>& demand,
         into[net.pipes[k].from] -= r.links[k].flow_m3s;
         into[net.pipes[k].to] += r.links[k].flow_m3s;
       });
-  // Why node n fails the check, or "" when it passes.
-  auto node_failure = [&](std::size_t n) -> std::string {
+  const double tolerance = kSelfCheckSlack * options.continuity_tolerance_m3s;
+  auto node_passes = [&](std::size_t n) {
     const NodeState& ns = r.nodes[n];
-    if (net.nodes[n].is_fixed_head() || !ns.supplied) return "";
-    if (!std::isfinite(ns.head_m) || !std::isfinite(ns.pressure_pa)) {
-      return "node '" + net.nodes[n].id + "' has a non-finite head";
-    }
-    const double c = balance[n] - demand[n];
-    const double tolerance = kSelfCheckSlack * options.continuity_tolerance_m3s;
-    if (!(std::abs(c) <= tolerance)) {
-      std::ostringstream m;
-      m << "node '" << net.nodes[n].id << "' continuity residual " << c << " m3/s exceeds "
-        << tolerance << " m3/s";
-      return m.str();
-    }
-    return "";
+    if (net.nodes[n].is_fixed_head() || !ns.supplied) return true;
+    return std::isfinite(ns.head_m) && std::isfinite(ns.pressure_pa) &&
+           std::abs(balance[n] - demand[n]) <= tolerance;
   };
   const std::vector<std::size_t> failing =
-      indices_where(static_cast<std::ptrdiff_t>(net.nodes.size()), [&](std::ptrdiff_t n) {
-        return !node_failure(static_cast<std::size_t>(n)).empty();
-      });
-  if (!failing.empty()) return fail(node_failure(failing.front()));
+      indices_where(static_cast<std::ptrdiff_t>(net.nodes.size()),
+                    [&](std::ptrdiff_t n) { return !node_passes(static_cast<std::size_t>(n)); });
+  if (!failing.empty()) {  // the first failing node in file order is the one reported
+    const std::size_t n = failing.front();
+    const NodeState& ns = r.nodes[n];
+    if (!std::isfinite(ns.head_m) || !std::isfinite(ns.pressure_pa)) {
+      return fail("node '" + net.nodes[n].id + "' has a non-finite head");
+    }
+    std::ostringstream m;
+    m << "node '" << net.nodes[n].id << "' continuity residual " << balance[n] - demand[n]
+      << " m3/s exceeds " << tolerance << " m3/s";
+    return fail(m.str());
+  }
   return out;
 }
 
