@@ -246,12 +246,8 @@ bool GradientSolver::newton_step(State* next) {
 // One-way links: check valves and pumps allow flow from `from` to `to` (direction +1); a link
 // at a tank that may only receive allows flow into the tank. Conflicting demands close it.
 void GradientSolver::set_directions() {
-  // Which nodes may only receive, in one pass over the nodes, so the pass over the links reads
-  // a byte per end instead of a whole node.
-  std::vector<char> receives(net_.nodes.size());
-  for_each_index(static_cast<std::ptrdiff_t>(net_.nodes.size()),
-                 [&](std::ptrdiff_t n) { receives[n] = net_.nodes[n].receives_only(); });
-  for_each_index(static_cast<std::ptrdiff_t>(net_.pipes.size()), [&](std::ptrdiff_t k) {
+  // receives(n): node n may only receive.
+  auto set = [&](std::ptrdiff_t k, const auto& receives) {
     const Pipe& p = net_.pipes[k];
     int forward = p.check_valve ? 1 : 0;
     int conflict = 0;
@@ -259,14 +255,27 @@ void GradientSolver::set_directions() {
       if (forward != 0 && forward != d) conflict = 1;
       forward = d;
     };
-    if (receives[p.to]) require(1);
-    if (receives[p.from]) require(-1);
+    if (receives(p.to)) require(1);
+    if (receives(p.from)) require(-1);
     direction_[k] = conflict ? 0 : forward;
     if (conflict) {
       cv_closed_[k] = 1;
       toggles_[k] = kMaxStatusToggles;  // stays closed
     }
-  });
+  };
+  const std::ptrdiff_t links = static_cast<std::ptrdiff_t>(net_.pipes.size());
+  if (links < kParallelLinks) {
+    const auto node_receives = [&](std::size_t n) { return net_.nodes[n].receives_only(); };
+    for (std::ptrdiff_t k = 0; k < links; ++k) set(k, node_receives);
+    return;
+  }
+  // Large networks: which nodes may only receive, in one pass over the nodes, so the pass over
+  // the links (on every core) reads a byte per end instead of a whole node.
+  std::vector<char> receives(net_.nodes.size());
+  for_each_index(static_cast<std::ptrdiff_t>(net_.nodes.size()),
+                 [&](std::ptrdiff_t n) { receives[n] = net_.nodes[n].receives_only(); });
+  const auto flag = [&](std::size_t n) { return receives[n] != 0; };
+  for_each_index(links, [&](std::ptrdiff_t k) { set(k, flag); });
 }
 
 bool GradientSolver::update_check_valves(const State& s) {
