@@ -56,6 +56,26 @@ TEST_CASE("split_lines drops a UTF-8 byte-order mark and keeps a last line with 
   CHECK(lines[1] == "node A elevation=1");
 }
 
+TEST_CASE("texts of every length up to 200 bytes split as std::getline splits them") {
+  // Newlines on either side of the 64-byte blocks the newlines are looked for in.
+  std::size_t differing = 0;
+  for (std::size_t size = 0; size <= 200; ++size) {
+    for (std::size_t every : {1, 2, 7, 63, 64, 65, 300}) {
+      std::string text;
+      for (std::size_t i = 0; i < size; ++i) text += (i + 1) % every == 0 ? '\n' : 'x';
+      std::vector<std::string> expected;
+      std::istringstream in(text);
+      for (std::string line; std::getline(in, line);) expected.push_back(line);
+      const std::vector<std::string_view> lines = split_lines(text);
+      differing += lines.size() != expected.size();
+      for (std::size_t i = 0; i < std::min(lines.size(), expected.size()); ++i) {
+        differing += lines[i] != expected[i];
+      }
+    }
+  }
+  CHECK(differing == 0);
+}
+
 TEST_CASE("a text of several megabytes splits into the same lines on every core") {
   // Lines of varied length (empty ones, runs of newlines, a long one), no newline at the end;
   // the expected lines come from std::getline, which ends lines the same way.

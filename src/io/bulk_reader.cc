@@ -6,6 +6,7 @@
 
 #include "io/diagnostics.h"
 #include "io/lexer.h"
+#include "io/plain_lines.h"
 
 namespace gradeline {
 namespace {
@@ -30,9 +31,19 @@ bool takes_link_slot(LineKind k) { return k == LineKind::kPipe || k == LineKind:
 // Reads one kNode or kPipe line into its slot; false on any error.
 bool read_line(std::string_view text, std::size_t index, LineKind kind, const ReadContext& c,
                Statement* s, Node* node, Pipe* pipe, PipeEnds* ends) {
-  const LexResult lexed = lex_line(text, static_cast<int>(index) + 1, s);
+  const int line = static_cast<int>(index) + 1;
+  // Each slot is still as default-constructed. A plain line is read straight into it; any
+  // other is read the general way, into a slot made default again.
+  if (kind == LineKind::kNode) {
+    if (read_plain_junction(text, line, c, node)) return true;
+    *node = Node{};
+  } else {
+    if (read_plain_pipe(text, line, c, pipe, ends)) return true;
+    *pipe = Pipe{};
+    *ends = PipeEnds{};
+  }
+  const LexResult lexed = lex_line(text, line, s);
   if (lexed.empty || !lexed.error.empty()) return false;
-  // Each slot is still as default-constructed: the element is read straight into it.
   if (kind == LineKind::kNode) {
     return s->keyword == "node" && read_junction_in_place(*s, c, node) && c.diagnostics->empty();
   }

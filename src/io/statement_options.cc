@@ -94,8 +94,8 @@ std::optional<double> StatementOptions::parse(std::string_view key_view, std::st
     return std::nullopt;
   }
   const double v = parsed.quantity.value;
+  if (within(v, range)) return v;
   const bool below = range.min_inclusive ? v < range.min : v <= range.min;
-  if (!below && v <= range.max) return v;
   const std::string key(key_view), text(text_view);  // for the messages below
   if (below) {
     if (range.min == 0.0 && !range.min_inclusive) {

@@ -21,6 +21,12 @@ struct Range {
   const char* max_text = "";  // the bound as written in messages, e.g. "20 m"
 };
 
+// Whether `value` (SI) lies in `range`.
+inline bool within(double value, const Range& range) {
+  const bool below = range.min_inclusive ? value < range.min : value <= range.min;
+  return !below && value <= range.max;
+}
+
 class StatementOptions {
  public:
   // Reports every key of `statement` that is not in `allowed`, and every repeated key other
