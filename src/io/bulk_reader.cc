@@ -2,7 +2,9 @@
 
 #include <algorithm>
 #include <atomic>
+#include <functional>
 #include <memory>
+#include <thread>
 
 #include "io/diagnostics.h"
 #include "io/lexer.h"
@@ -86,7 +88,8 @@ LineKinds classify_lines(const std::vector<std::string_view>& lines) {
 
 bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& kinds,
                   std::size_t first, const std::string& file, UnitSystem units,
-                  std::vector<Node>* nodes, std::vector<Pipe>* pipes, std::vector<PipeEnds>* ends) {
+                  std::vector<Node>* nodes, std::vector<Pipe>* pipes, std::vector<PipeEnds>* ends,
+                  const std::function<bool()>& index_nodes) {
   const std::vector<LineKind>& kind = kinds.kinds;
   const std::size_t count = lines.size();
   const std::size_t per_chunk = (count - first + kChunks - 1) / kChunks;
@@ -97,6 +100,8 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
     nodes_before += takes_node_slot(kind[i]);
     links_before += takes_link_slot(kind[i]);
   }
+  // The node lookup is built as the work item after the last chunk with a node line.
+  std::size_t index_item = 0;
   for (std::size_t c = 0; c < kChunks; ++c) {
     node_slot[c] = nodes_before;
     link_slot[c] = links_before;
@@ -104,12 +109,28 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
     for (std::size_t i = std::min(count, first + c * per_chunk); i < end; ++i) {
       nodes_before += takes_node_slot(kind[i]);
       links_before += takes_link_slot(kind[i]);
+      if (kind[i] == LineKind::kNode) index_item = c + 1;
     }
   }
   std::atomic<bool> failed{false};
-#pragma omp parallel for schedule(dynamic, 1)
-  for (std::ptrdiff_t c = 0; c < static_cast<std::ptrdiff_t>(kChunks); ++c) {
-    const std::size_t chunk = static_cast<std::size_t>(c);
+  std::atomic<std::size_t> next_item{0};
+  std::atomic<std::size_t> node_chunks_read{0};  // of the chunks before index_item
+  // Work items in order, taken by the cores as they come free: chunks (dealt one at a time,
+  // as a node line costs more than a pipe line and the nodes come first) and, once every
+  // node line is read, the node lookup, which one core builds while the others read on.
+#pragma omp parallel
+  for (;;) {
+    const std::size_t item = next_item.fetch_add(1);
+    if (item > kChunks) break;
+    if (item == index_item) {
+      while (node_chunks_read.load(std::memory_order_acquire) < index_item &&
+             !failed.load(std::memory_order_relaxed)) {
+        std::this_thread::yield();
+      }
+      if (!failed.load() && !index_nodes()) failed.store(true);
+      continue;
+    }
+    const std::size_t chunk = item < index_item ? item : item - 1;
     // Each chunk has its own copy of the file name: elements read at the same time on
     // different cores then never count references on one shared counter.
     const std::string* name = intern_file_name(file);
@@ -133,6 +154,7 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
       node += takes_node_slot(k);
       link += takes_link_slot(k);
     }
+    if (chunk < index_item) node_chunks_read.fetch_add(1, std::memory_order_release);
   }
   return !failed.load();
 }

@@ -15,6 +15,7 @@
 #pragma once
 
 #include <cstddef>
+#include <functional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -51,11 +52,14 @@ LineKinds classify_lines(const std::vector<std::string_view>& lines);
 
 // Reads every kNode and kPipe line from line index `first` on (all earlier lines hold none)
 // into its slot: `nodes` and `pipes` are sized to the counts of `kinds`, `ends` like `pipes`.
-// Line k is line number k + 1 of `file`. The IDs in `ends` view `lines`. False when any line
-// read has an error (what is left in the slots is then unspecified).
+// Line k is line number k + 1 of `file`. The IDs in `ends` view `lines`. `index_nodes` runs
+// once, on one core, as soon as every kNode line has been read, while the other cores read the
+// rest; it returning false fails the read. False when any line read has an error (what is left
+// in the slots is then unspecified).
 bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& kinds,
                   std::size_t first, const std::string& file, UnitSystem units,
-                  std::vector<Node>* nodes, std::vector<Pipe>* pipes, std::vector<PipeEnds>* ends);
+                  std::vector<Node>* nodes, std::vector<Pipe>* pipes, std::vector<PipeEnds>* ends,
+                  const std::function<bool()>& index_nodes);
 
 // Settles every link of `net` (settle_pipe: end nodes, defaults, checks) on every core, then
 // adds the links to the pipe ID lookup in file order. `ends` is parallel to net->pipes. False

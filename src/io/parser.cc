@@ -215,24 +215,32 @@ void NetworkParser::read_placed(const std::vector<std::string_view>& lines,
       std::find_if(kind.begin(), kind.end(),
                    [](LineKind k) { return k == LineKind::kNode || k == LineKind::kPipe; }) -
       kind.begin());
+  // The `node` lines join the ID lookup in file order, on one core while the others read the
+  // pipe lines; reservoirs and tanks join it below, as they are read. A duplicate ID makes the
+  // bulk read fail: its error comes from the reading line by line.
+  auto index_nodes = [&] {
+    std::size_t slot = 0;
+    for (std::size_t i = 0; i < kind.size(); ++i) {
+      if (kind[i] == LineKind::kNode) {
+        if (slot + kNodeLookAhead < nodes.size()) net_.prefetch_node(nodes[slot + kNodeLookAhead].id);
+        if (!net_.try_index_node(slot)) return false;
+      }
+      slot += kind[i] == LineKind::kNode || kind[i] == LineKind::kNodeOther;
+    }
+    return true;
+  };
   std::size_t next_node = 0, next_link = 0;
   Statement s;
   for (std::size_t i = 0; i < lines.size(); ++i) {
     if (i == first && !read_in_bulk(lines, kinds, first, file, net_.units, &nodes, &net_.pipes,
-                                    &ends_)) {
+                                    &ends_, index_nodes)) {
       fall_back_ = true;
       return;
     }
     const LineKind k = kind[i];
     if (k == LineKind::kNode || k == LineKind::kPipe) units_locked_ = true;  // as node() and pipe()
     if (k == LineKind::kNode) {
-      if (next_node + kNodeLookAhead < nodes.size()) {
-        net_.prefetch_node(nodes[next_node + kNodeLookAhead].id);
-      }
-      if (!net_.try_index_node(next_node++)) {
-        fall_back_ = true;  // a duplicate ID: its error comes from the reading line by line
-        return;
-      }
+      ++next_node;
       continue;
     }
     if (k == LineKind::kPipe) {
