@@ -6,8 +6,10 @@
 // before any value with a unit default). Those lines are read in parallel, each straight into
 // the slot that its element takes in Network::nodes or Network::pipes; slots are numbered in
 // file order over all node-like statements (node, reservoir, tank) and all link-like ones
-// (pipe, pump, valve). The parser reads every other line in file order as usual and adds the
-// elements to the ID lookup in file order, so the network is the same as one read line by line.
+// (pipe, pump, valve). The `node` lines join the ID lookup in file order on one core while
+// the others read the pipe lines; the parser reads every other line in file order as usual,
+// adding reservoirs and tanks to the lookup as it goes. Without duplicate IDs (any duplicate
+// fails the bulk read) the network is the same as one read line by line.
 //
 // The bulk read only succeeds on input without errors: any line it cannot read cleanly makes
 // it report failure, and the parser then reads the whole file again line by line, which gives
