@@ -1,10 +1,12 @@
 // Pipe head-loss laws: every dh/dQ against a central finite difference, sign symmetry,
 // monotone losses, and the Hazen-Williams regularisation near Q = 0.
+#include "hydraulics/link_law.h"
+
 #include <doctest/doctest.h>
 
 #include <cmath>
 
-#include "hydraulics/link_law.h"
+#include "test_support.h"
 
 using namespace gradeline;
 
@@ -13,23 +15,13 @@ namespace {
 constexpr double kDerivativeRelTol = 1e-6;
 
 PipeLaw law(HeadlossLaw kind, double d_m, double minor = 0.0) {
-  Pipe p;
-  p.length_m = 350.0;
-  p.diameter_m = d_m;
-  p.roughness_m = 2e-4;
-  p.cfactor = 120.0;
-  p.minor_k = minor;
-  HeadlossModel m;
-  m.law = kind;
-  Fluid f;
-  f.kinematic_viscosity_m2s = 1.1e-6;
-  return make_pipe_law(p, m, f, 1e-8);
+  return testing::pipe_law(kind, d_m, minor);
 }
 
 void check_derivative(const PipeLaw& p, double q) {
   const double step = std::max(1e-7 * std::abs(q), 1e-12);
-  const double fd = (evaluate_pipe(p, q + step).headloss_m - evaluate_pipe(p, q - step).headloss_m) /
-                    (2 * step);
+  const double fd =
+      (evaluate_pipe(p, q + step).headloss_m - evaluate_pipe(p, q - step).headloss_m) / (2 * step);
   CAPTURE(q);
   CHECK(evaluate_pipe(p, q).dh_dq == doctest::Approx(fd).epsilon(kDerivativeRelTol));
 }
@@ -84,13 +76,15 @@ TEST_CASE("the Hazen-Williams regularisation is invisible at working flows") {
   // h = 10.67 L Q^1.852 / (C^1.852 D^4.87) (SI form of Hazen-Williams).
   const PipeLaw p = law(HeadlossLaw::kHazenWilliams, 0.2);
   for (double q : {1e-6, 1e-3, 0.05}) {
-    const double exact = 10.67 * 350.0 * std::pow(q, 1.852) /
-                         (std::pow(120.0, 1.852) * std::pow(0.2, 4.87));
+    const double exact =
+        10.67 * 350.0 * std::pow(q, 1.852) / (std::pow(120.0, 1.852) * std::pow(0.2, 4.87));
     CHECK(evaluate_pipe(p, q).headloss_m == doctest::Approx(exact).epsilon(1e-10));
   }
 }
 
-TEST_CASE("a first-order update over a relative flow change of kUpdateRelativeFlow is exact to round-off") {
+TEST_CASE(
+    "a first-order update over a relative flow change of kUpdateRelativeFlow is exact to "
+    "round-off") {
   // The partial update of the Newton loop (link_law.h): h(Q0) + h'(Q0) (Q - Q0) against a new
   // evaluation at Q = Q0 (1 + d), in the laminar, transitional and turbulent ranges and under
   // Hazen-Williams. Taylor's theorem bounds the difference by about d^2 |h| = 1e-16 |h|; a

@@ -132,7 +132,8 @@ double max_continuity_m3s(const Network& net, const SolveResult& result) {
 
 std::string temp_dir() {
   static std::string dir = [] {
-    std::string pattern = (std::filesystem::temp_directory_path() / "gradeline-test-XXXXXX").string();
+    std::string pattern =
+        (std::filesystem::temp_directory_path() / "gradeline-test-XXXXXX").string();
     REQUIRE(mkdtemp(pattern.data()) != nullptr);
     return pattern;
   }();
@@ -160,6 +161,20 @@ CommandResult run_gradeline(const std::string& arguments) {
   r.out = slurp(out);
   r.err = slurp(err);
   return r;
+}
+
+PipeLaw pipe_law(HeadlossLaw kind, double d_m, double minor) {
+  Pipe p;
+  p.length_m = 350.0;
+  p.diameter_m = d_m;
+  p.roughness_m = 2e-4;
+  p.cfactor = 120.0;
+  p.minor_k = minor;
+  HeadlossModel m;
+  m.law = kind;
+  Fluid f;
+  f.kinematic_viscosity_m2s = 1.1e-6;
+  return make_pipe_law(p, m, f, 1e-8);
 }
 
 }  // namespace gradeline::testing

@@ -7,6 +7,7 @@
 
 #include "gradeline/network.h"
 #include "gradeline/solve_summary.h"
+#include "hydraulics/link_law.h"
 
 namespace gradeline::testing {
 
@@ -18,6 +19,10 @@ std::vector<std::vector<double>> read_csv(const std::string& relative);
 // Parses a network from tests/ or networks/; fails the test on any error.
 Network load(const std::string& relative);
 Network parse_or_fail(const std::string& text);
+
+// The law of a 350 m pipe of diameter d_m (roughness 0.2 mm, C = 120, minor loss K) under
+// `kind`, in water of 1.1e-6 m^2/s.
+PipeLaw pipe_law(HeadlossLaw kind, double d_m, double minor = 0.0);
 
 // The base demand of every node (m^3/s), as a demand vector for solve().
 std::vector<double> base_demand(const Network& network);

@@ -73,6 +73,11 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
     e.dh_dq = base * (c * flow * flow + q0 * q0);
     return e;
   }
+  double reynolds = 0.0;
+  if (needs_colebrook(p, flow, &reynolds)) {
+    const ColebrookSolution c = colebrook_friction(reynolds, p.relative_roughness, colebrook_x);
+    return turbulent_pipe(p, flow, reynolds, c.f, c.df_dre);
+  }
   const double q = std::abs(flow);
   const double sign = flow < 0.0 ? -1.0 : 1.0;
   e.reynolds = q * p.reynolds_per_flow;

@@ -25,6 +25,7 @@
 
 #include "gradeline/network.h"
 #include "gradeline/solve_summary.h"
+#include "hydraulics/friction.h"
 
 namespace gradeline {
 
@@ -90,5 +91,33 @@ inline constexpr double kUpdateRelativeFlow = 1e-8;
 
 // `colebrook_x`: optional per-pipe warm start of the Colebrook root (see colebrook_friction).
 LinkEval evaluate_pipe(const PipeLaw& law, double flow_m3s, double* colebrook_x = nullptr);
+
+// evaluate_pipe in two parts, for callers that find many friction factors at once
+// (colebrook_batch): whether `law` at `flow_m3s` is a Darcy-Weisbach pipe in turbulent flow
+// (Re >= 4000), with *reynolds set; if so, turbulent_pipe gives evaluate_pipe's result from
+// Colebrook's f and df/dRe at that Reynolds number.
+// (Inline: the solver calls them for every pipe in every iteration.)
+inline bool needs_colebrook(const PipeLaw& law, double flow_m3s, double* reynolds) {
+  if (law.kind != LawKind::kDarcyWeisbach) return false;
+  *reynolds = (flow_m3s < 0.0 ? -flow_m3s : flow_m3s) * law.reynolds_per_flow;
+  return *reynolds >= kTurbulentLimitRe;
+}
+inline LinkEval turbulent_pipe(const PipeLaw& law, double flow_m3s, double reynolds, double f,
+                               double df_dre) {
+  // As evaluate_pipe's Darcy-Weisbach branch, with darcy_friction's turbulent regime.
+  LinkEval e;
+  const double q = flow_m3s < 0.0 ? -flow_m3s : flow_m3s;
+  const double sign = flow_m3s < 0.0 ? -1.0 : 1.0;
+  e.reynolds = reynolds;
+  e.regime = FlowRegime::kTurbulent;
+  e.friction_factor = f;
+  double h = f * law.turbulent_coef * q * q;
+  double dh = law.turbulent_coef * q * (2.0 * f + df_dre * reynolds);
+  h += law.minor_coef * q * q;
+  dh += 2.0 * law.minor_coef * q;
+  e.headloss_m = sign * h;
+  e.dh_dq = dh;
+  return e;
+}
 
 }  // namespace gradeline

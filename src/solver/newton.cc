@@ -13,6 +13,7 @@
 #include "model/topology.h"
 #include "solver/assembly.h"
 #include "solver/control_valves.h"
+#include "solver/link_batch.h"
 #include "solver/reduced_solve.h"
 #include "solver/residuals.h"
 #include "solver/solver_cache.h"
@@ -29,6 +30,7 @@ double seconds_since(Clock::time_point t) {
 
 constexpr int kMaxStatusToggles = 8;  // per check valve, against cycling
 constexpr std::ptrdiff_t kParallelLinks = kParallelElements;
+constexpr std::ptrdiff_t kEvaluationBlock = 2048;  // links per block of evaluation (LinkBatch)
 constexpr double kValveHeadTolerance_m = 1e-6;  // band for valve mode decisions
 
 struct State {
@@ -119,26 +121,28 @@ void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>
   // Each link's law is independent of the others, so large networks share the links among the
   // cores; the result does not depend on how they are shared. They are dealt in blocks, not
   // halves: the chains, each a sum over its pipes, all sit at the end of the list, and a
-  // static split gave one core 2.3 times the other's work on tree-like networks.
+  // static split gave one core 2.3 times the other's work on tree-like networks. Within a
+  // block, the turbulent pipes' friction factors are found together (LinkBatch).
   // Partial update (kUpdateRelativeFlow). Valves are always evaluated, since their losses are
   // overridden by their mode.
   long long reused = 0, evaluated = 0;
-  // Link k; the counts are the caller's (each core's own copies when shared).
-  auto link = [&](std::ptrdiff_t k, long long& reused_here, long long& evaluated_here) {
+  // Link k needs no new evaluation: inactive, or (unless exact) barely moved since its last.
+  auto settled = [&](std::ptrdiff_t k, long long& reused_here) {
     if (!active_[k]) {
       headloss_[k] = 0.0;
       dh_dq_[k] = 0.0;
       evaluated_flow_[k] = std::numeric_limits<double>::quiet_NaN();
-      return;
+      return true;
     }
-    const double q = s.flow[k];
-    const double moved = q - evaluated_flow_[k];
-    if (!exact && !laws_[k].is_valve() && std::abs(moved) <= kUpdateRelativeFlow * std::abs(q)) {
+    const double moved = s.flow[k] - evaluated_flow_[k];
+    if (!exact && !laws_[k].is_valve() && std::abs(moved) <= kUpdateRelativeFlow * std::abs(s.flow[k])) {
       headloss_[k] = evaluated_loss_[k] + dh_dq_[k] * moved;
       ++reused_here;
-      return;
+      return true;
     }
-    LinkEval e = evaluate_link(static_cast<std::size_t>(k), q);
+    return false;
+  };
+  auto store = [&](std::ptrdiff_t k, const LinkEval& e, long long& evaluated_here) {
     if (report != nullptr && static_cast<std::size_t>(k) < first_chain_) {
       LinkState& ls = (*report)[k];
       ls.reynolds = e.reynolds;
@@ -147,14 +151,40 @@ void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>
     }
     headloss_[k] = evaluated_loss_[k] = e.headloss_m;
     dh_dq_[k] = e.dh_dq;
-    evaluated_flow_[k] = q;
+    evaluated_flow_[k] = s.flow[k];
     ++evaluated_here;
   };
-  if (links >= kParallelLinks) {
-#pragma omp parallel for schedule(dynamic, 2048) reduction(+ : reused, evaluated)
-    for (std::ptrdiff_t k = 0; k < links; ++k) link(k, reused, evaluated);
+  if (links < kParallelLinks) {
+    // Small networks link by link: a batch's bookkeeping costs more than its vector friction
+    // saves on a few dozen links (sizing makes hundreds of thousands of such solves).
+    for (std::ptrdiff_t k = 0; k < links; ++k) {  // no OpenMP region
+      if (!settled(k, reused)) store(k, evaluate_link(static_cast<std::size_t>(k), s.flow[k]), evaluated);
+    }
   } else {
-    for (std::ptrdiff_t k = 0; k < links; ++k) link(k, reused, evaluated);  // no OpenMP region
+    // Links begin..end-1; the counts are each core's own.
+    auto block = [&](std::ptrdiff_t begin, std::ptrdiff_t end, long long& reused_here,
+                     long long& evaluated_here) {
+      thread_local LinkBatch batch;  // each core's own, kept from block to block
+      thread_local std::vector<std::ptrdiff_t> batched;
+      batch.clear();
+      batched.clear();
+      for (std::ptrdiff_t k = begin; k < end; ++k) {
+        if (settled(k, reused_here)) continue;
+        batched.push_back(k);
+        if (static_cast<std::size_t>(k) >= first_chain_) {
+          batch.add_chain(chains_, static_cast<std::size_t>(k) - first_chain_, s.flow[k]);
+        } else {
+          batch.add_link(laws_[k], s.flow[k], &colebrook_x_[k]);
+        }
+      }
+      batch.evaluate();
+      for (std::size_t i = 0; i < batched.size(); ++i) store(batched[i], batch.result(i), evaluated_here);
+    };
+    const std::ptrdiff_t blocks = (links + kEvaluationBlock - 1) / kEvaluationBlock;
+#pragma omp parallel for schedule(dynamic, 1) reduction(+ : reused, evaluated)
+    for (std::ptrdiff_t b = 0; b < blocks; ++b) {
+      block(b * kEvaluationBlock, std::min(links, (b + 1) * kEvaluationBlock), reused, evaluated);
+    }
   }
   timing_.reused_link_evaluations += reused;
   timing_.link_evaluations += evaluated;
