@@ -7,9 +7,10 @@
 #if defined(__x86_64__) && defined(__GNUC__) && defined(GRADELINE_HAVE_MVEC)
 #include <immintrin.h>
 #define GRADELINE_VECTOR_COLEBROOK 1
-// glibc's libmvec: log and exp of four doubles (AVX2).
-extern "C" __m256d _ZGVdN4v_log(__m256d);
-extern "C" __m256d _ZGVdN4v_exp(__m256d);
+// glibc's libmvec: log and exp of four doubles (AVX2), declared as AVX2 functions so that the
+// vectors pass in registers as the library expects.
+extern "C" __attribute__((target("avx2"))) __m256d _ZGVdN4v_log(__m256d);
+extern "C" __attribute__((target("avx2"))) __m256d _ZGVdN4v_exp(__m256d);
 #endif
 
 namespace gradeline {
