@@ -50,12 +50,41 @@ TEST_CASE("plain pipes and junctions carry no box; pumps, valves and tanks do") 
   CHECK(tank.head_m == 64.0);
 }
 
-TEST_CASE("a file name is interned once, the same pointer from every thread") {
-  const std::string* here = intern_file_name("zone/a.gln");
-  const std::string* there = nullptr;
-  std::thread other([&] { there = intern_file_name(std::string("zone/") + "a.gln"); });
+TEST_CASE("a string is interned once, the same handle from every thread") {
+  const InternedString here = intern("zone/a.gln");
+  InternedString there;
+  std::thread other([&] { there = intern(std::string("zone/") + "a.gln"); });
   other.join();
   CHECK(here == there);
-  CHECK(*here == "zone/a.gln");
-  CHECK(intern_file_name("zone/b.gln") != here);
+  CHECK(here.str() == "zone/a.gln");
+  CHECK(intern("zone/b.gln") != here);
+  CHECK(intern("zone/a.gln") == here);  // after another string on this thread
+  CHECK(intern("").empty());
+  CHECK(InternedString().str().empty());
+}
+
+TEST_CASE("records stay compact: a node is 96 bytes and a link 104") {
+  // Most passes over a large network stream these records (gradeline/compact.h).
+  CHECK(sizeof(Node) == 96);
+  CHECK(sizeof(Pipe) == 104);
+  CHECK(sizeof(OptionalDouble) == 8);
+  CHECK(sizeof(OptionalPoint) == 16);
+  CHECK(sizeof(SourceLocation) == 8);
+}
+
+TEST_CASE("an OptionalDouble reads and writes like std::optional<double>") {
+  OptionalDouble v;
+  CHECK_FALSE(v);
+  CHECK(v.value_or(2.5) == 2.5);
+  v = 0.1;
+  CHECK(v);
+  CHECK(*v == 0.1);
+  v = std::optional<double>();
+  CHECK_FALSE(v.has_value());
+  v = std::optional<double>(-3.0);
+  CHECK(std::optional<double>(v) == std::optional<double>(-3.0));
+  CHECK(v == OptionalDouble(-3.0));
+  CHECK(v != OptionalDouble());
+  v.reset();
+  CHECK(v == OptionalDouble(std::nullopt));
 }

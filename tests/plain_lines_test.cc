@@ -24,7 +24,7 @@ std::string optional_text(const std::optional<double>& v) {
 std::string node_text(const Node& n) {
   char buffer[256];
   std::snprintf(buffer, sizeof buffer, "%s|%.17g|%.17g|%s|%d|%.17g|%.17g|%d", n.id.c_str(),
-                n.elevation_m, n.demand_m3s, n.demand_category.c_str(), n.at ? 1 : 0,
+                n.elevation_m, n.demand_m3s, n.demand_category.str().c_str(), n.at ? 1 : 0,
                 n.at ? n.at->x : 0.0, n.at ? n.at->y : 0.0, n.where.line);
   return buffer;
 }
@@ -52,7 +52,7 @@ enum class Path { kGeneral, kQuick };
 // the quick path.
 Read read(std::string_view line, UnitSystem units, Element element, Path path) {
   Diagnostics d;
-  const ReadContext c{kFile, intern_file_name(kFile), units, &d};
+  const ReadContext c{kFile, intern(kFile), units, &d};
   Node n;
   Pipe p;
   PipeEnds e;

@@ -13,31 +13,22 @@
 #include <string_view>
 #include <vector>
 
+#include "gradeline/compact.h"
 #include "gradeline/id_index.h"
 
 namespace gradeline {
 
 enum class UnitSystem { kSI, kUS };
 
-enum class NodeKind { kJunction, kReservoir, kTank };
+enum class NodeKind : std::uint8_t { kJunction, kReservoir, kTank };
 
-struct Point {
-  double x = 0.0;
-  double y = 0.0;
-};
-
-// Where an element was defined, for diagnostics after parsing. The file name is shared by
-// every element read from that file.
-// Where an element was read. The file name is interned (intern_file_name), so a location is
-// two words, copied without touching a reference count: a million elements read on two cores
-// would otherwise contend for one counter.
+// Where an element was read. The file name is interned (compact.h), so a location is 8 bytes,
+// copied without touching a reference count: a million elements read on two cores would
+// otherwise contend for one counter.
 struct SourceLocation {
-  const std::string* file_name = nullptr;
+  InternedString file_name;
   int line = 0;
-  const std::string& file() const {
-    static const std::string none;
-    return file_name ? *file_name : none;
-  }
+  const std::string& file() const { return file_name.str(); }
 };
 
 // A value kept on the heap, and only once it is written: copies copy it, moves move the
@@ -78,16 +69,17 @@ struct TankLevels {
   std::optional<double> tank_diameter_m;
 };
 
+// 96 bytes (see compact.h for why it matters).
 struct Node {
   std::string id;
-  NodeKind kind = NodeKind::kJunction;
   double elevation_m = 0.0;  // ground / pipe invert reference for pressure
   double demand_m3s = 0.0;   // base demand, positive out of the network
-  std::string demand_category;  // empty: uncategorised
   double head_m = 0.0;       // fixed hydraulic grade line, reservoirs and tanks
   Boxed<TankLevels> tank;    // tanks: read with levels(), write with edit_levels()
-  std::optional<Point> at;
+  OptionalPoint at;
   SourceLocation where;
+  InternedString demand_category;  // empty: uncategorised
+  NodeKind kind = NodeKind::kJunction;
 
   const TankLevels& levels() const { return tank.get(); }
   TankLevels& edit_levels() { return tank.edit(); }
@@ -97,10 +89,6 @@ struct Node {
     return kind == NodeKind::kTank && levels().level_m <= levels().min_level_m;
   }
 };
-
-// A process-wide copy of `name`, the same pointer for the same name, kept until the process
-// ends (the names are those of the files read, so they stay few). Thread-safe.
-const std::string* intern_file_name(std::string_view name);
 
 enum class LinkStatus : std::uint8_t { kOpen, kClosed };
 
@@ -134,21 +122,22 @@ struct LinkControls {
 };
 
 // A link: a pipe, or a pump (which has no length or diameter of its own), or a valve.
+// 104 bytes (see compact.h for why it matters).
 struct Pipe {
   std::string id;
   LinkKind kind = LinkKind::kPipe;
   LinkStatus status = LinkStatus::kOpen;
   bool check_valve = false;  // flow only from `from` to `to`
   bool resizable = false;    // marked for `gradeline size` (resize=yes)
-  std::size_t from = 0;  // index into Network::nodes
-  std::size_t to = 0;
+  std::uint32_t from = 0;    // index into Network::nodes
+  std::uint32_t to = 0;
+  SourceLocation where;
   double length_m = 0.0;
   double diameter_m = 0.0;
-  std::optional<double> roughness_m;  // absolute roughness, Darcy-Weisbach
-  std::optional<double> cfactor;      // Hazen-Williams C (dimensionless)
-  double minor_k = 0.0;               // sum of minor-loss coefficients
+  OptionalDouble roughness_m;  // absolute roughness, Darcy-Weisbach
+  OptionalDouble cfactor;      // Hazen-Williams C (dimensionless)
+  double minor_k = 0.0;        // sum of minor-loss coefficients
   Boxed<LinkControls> controls;  // pumps and valves: read with control(), write with edit_control()
-  SourceLocation where;
 
   const LinkControls& control() const { return controls.get(); }
   LinkControls& edit_control() { return controls.edit(); }

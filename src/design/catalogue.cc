@@ -43,7 +43,7 @@ CatalogueResult parse_catalogue_text(std::string_view text, const std::string& f
   UnitSystem units = UnitSystem::kSI;
   bool seen_item = false;
   Statement s;
-  const std::string* file_name = intern_file_name(file);
+  const InternedString file_name = intern(file);
   std::vector<std::string_view> lines = split_lines(text);
   for (std::size_t i = 0; i < lines.size() && !d.full(); ++i) {
     const int line = static_cast<int>(i) + 1;

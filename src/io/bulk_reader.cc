@@ -131,11 +131,8 @@ bool read_in_bulk(const std::vector<std::string_view>& lines, const LineKinds& k
       continue;
     }
     const std::size_t chunk = item < index_item ? item : item - 1;
-    // Each chunk has its own copy of the file name: elements read at the same time on
-    // different cores then never count references on one shared counter.
-    const std::string* name = intern_file_name(file);
     Diagnostics diagnostics;
-    const ReadContext context{file, name, units, &diagnostics};
+    const ReadContext context{file, intern(file), units, &diagnostics};
     Statement s;
     std::size_t node = node_slot[chunk], link = link_slot[chunk];
     const std::size_t end = std::min(count, first + (chunk + 1) * per_chunk);

@@ -16,7 +16,7 @@ enum class Target { kNone, kPipe, kNode };
 class ChangeApplier {
  public:
   ChangeApplier(const std::string& file, Network* net)
-      : file_(file), file_name_(intern_file_name(file)), net_(net) {}
+      : file_(file), file_name_(intern(file)), net_(net) {}
   void statement(const Statement& s);
   ChangeResult finish(int last_line);
   void error(int line, std::string message) { diagnostics_.error(file_, line, std::move(message)); }
@@ -31,7 +31,7 @@ class ChangeApplier {
   void remove(const Statement& s);
 
   std::string file_;
-  const std::string* file_name_;
+  InternedString file_name_;
   Network* net_;
   Diagnostics diagnostics_;
   UnitSystem units_ = net_->units;

@@ -104,7 +104,7 @@ void read_junction_keys(StatementOptions& o, Node* n) {
     }
     if (auto q = o.parse("demand", text, Dimension::kFlow, kDemandRange)) {
       n->demand_m3s = *q;
-      n->demand_category = category;
+      n->demand_category = intern(category);
     }
   }
 }

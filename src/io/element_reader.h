@@ -20,7 +20,7 @@ extern const Range kLengthRange, kDiameterRange, kRoughnessRange, kElevationRang
 
 struct ReadContext {
   const std::string& file;
-  const std::string* file_name = nullptr;  // `file`, interned (intern_file_name)
+  InternedString file_name;  // `file`, interned
   UnitSystem units = UnitSystem::kSI;
   Diagnostics* diagnostics = nullptr;
 };

@@ -110,7 +110,7 @@ class NetworkParser {
   std::vector<CaseRead> cases_;
   std::vector<LimitRead> limits_;
   std::vector<std::string> include_stack_;
-  std::vector<const std::string*> file_names_;  // of the files being read
+  std::vector<InternedString> file_names_;  // of the files being read
   bool units_locked_ = false;
   bool seen_units_ = false;
   PipeDefaults defaults_;
@@ -161,7 +161,7 @@ void NetworkParser::parse_text(std::string_view text, const std::string& file, i
     last_file_ = file;
     last_line_ = std::max<int>(1, static_cast<int>(lines.size()));
   }
-  file_names_.push_back(intern_file_name(file));
+  file_names_.push_back(intern(file));
   if (depth == 0 && lines.size() >= bulk_from_lines_ && kinds.includes == 0) {
     read_placed(lines, kinds, file);
   } else {

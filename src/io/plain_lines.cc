@@ -146,7 +146,7 @@ bool read_plain_junction(std::string_view line, int line_number, const ReadConte
       }
       if (!plain_quantity(value, Dimension::kFlow, kDemandRange, c.units, &n->demand_m3s))
         return -1;
-      n->demand_category = category;
+      n->demand_category = intern(category);
       return 1;
     }
     if (key == "at") {

@@ -1,26 +1,84 @@
 #include "gradeline/network.h"
 
+#include <cstdlib>
 #include <mutex>
-#include <unordered_set>
+#include <unordered_map>
 
 namespace gradeline {
 
-const std::string* intern_file_name(std::string_view name) {
-  // A node-based set: its strings never move, and are never freed (see the header).
-  static std::mutex* guard = new std::mutex;
-  static auto* names = new std::unordered_set<std::string>;
-  std::lock_guard<std::mutex> lock(*guard);
-  return &*names->emplace(name).first;
+namespace {
+
+// The interned strings: a table of chunks that never move (chunk c holds strings
+// c * kChunkSize ...), filled under a lock; a string is read without one, since whoever holds
+// its InternedString obtained it after the string was stored.
+constexpr std::size_t kChunkBits = 12;
+constexpr std::size_t kChunkSize = std::size_t{1} << kChunkBits;
+constexpr std::size_t kMaxChunks = std::size_t{1} << 12;  // 16.7 million strings
+
+struct InternTable {
+  std::mutex guard;
+  std::unordered_map<std::string_view, std::uint32_t> index;  // views of the strings below
+  const std::string** chunks[kMaxChunks] = {};
+  std::uint32_t count = 0;
+};
+
+InternTable& intern_table() {
+  static InternTable* table = new InternTable;  // never freed, like the strings
+  return *table;
+}
+
+}  // namespace
+
+const std::string& InternedString::str() const {
+  static const std::string empty;
+  if (index_ == 0) return empty;
+  const std::uint32_t i = index_ - 1;
+  return *intern_table().chunks[i >> kChunkBits][i & (kChunkSize - 1)];
+}
+
+InternedString intern(std::string_view text) {
+  if (text.empty()) return InternedString();
+  // The last string interned on this thread, without the lock: the bulk reader interns the
+  // same file name, or runs of the same demand category, line after line.
+  thread_local std::string last_text;
+  thread_local InternedString last;
+  if (!last.empty() && text == last_text) return last;
+  InternTable& t = intern_table();
+  std::lock_guard<std::mutex> lock(t.guard);
+  auto found = t.index.find(text);
+  std::uint32_t index = 0;
+  if (found != t.index.end()) {
+    index = found->second;
+  } else {
+    const std::uint32_t i = t.count;
+    if ((i >> kChunkBits) >= kMaxChunks) std::abort();  // more distinct names than any model has
+    const std::string**& chunk = t.chunks[i >> kChunkBits];
+    if (chunk == nullptr) chunk = new const std::string*[kChunkSize];
+    const std::string* stored = new std::string(text);
+    chunk[i & (kChunkSize - 1)] = stored;
+    ++t.count;
+    index = i + 1;
+    t.index.emplace(*stored, index);
+  }
+  last_text.assign(text.data(), text.size());
+  last = InternedString(index);
+  return last;
 }
 
 const char* link_kind_name(LinkKind kind) {
   switch (kind) {
-    case LinkKind::kPipe: return "pipe";
-    case LinkKind::kPump: return "pump";
-    case LinkKind::kPrv: return "prv";
-    case LinkKind::kPsv: return "psv";
-    case LinkKind::kFcv: return "fcv";
-    case LinkKind::kThrottle: return "throttle";
+    case LinkKind::kPipe:
+      return "pipe";
+    case LinkKind::kPump:
+      return "pump";
+    case LinkKind::kPrv:
+      return "prv";
+    case LinkKind::kPsv:
+      return "psv";
+    case LinkKind::kFcv:
+      return "fcv";
+    case LinkKind::kThrottle:
+      return "throttle";
   }
   return "pipe";
 }
@@ -53,7 +111,8 @@ void Network::reserve(std::size_t node_count, std::size_t pipe_count) {
 
 std::size_t Network::add_node(Node node) {
   const std::size_t index = nodes.size();
-  node_index_.insert(node.id, index, [this](std::size_t i) -> std::string_view { return nodes[i].id; });
+  node_index_.insert(node.id, index,
+                     [this](std::size_t i) -> std::string_view { return nodes[i].id; });
   nodes.push_back(std::move(node));
   return index;
 }
@@ -88,7 +147,8 @@ bool Network::try_index_pipe(std::size_t k) {
 
 std::size_t Network::add_pipe(Pipe pipe) {
   const std::size_t index = pipes.size();
-  pipe_index_.insert(pipe.id, index, [this](std::size_t i) -> std::string_view { return pipes[i].id; });
+  pipe_index_.insert(pipe.id, index,
+                     [this](std::size_t i) -> std::string_view { return pipes[i].id; });
   pipes.push_back(std::move(pipe));
   return index;
 }
