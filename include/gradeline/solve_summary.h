@@ -2,6 +2,7 @@
 // got and what the residuals are; the result carries the state of every node and link.
 #pragma once
 
+#include <cstdint>
 #include <cstddef>
 #include <string>
 #include <vector>
@@ -19,12 +20,12 @@ enum class Termination {
 
 const char* termination_name(Termination t);
 
-enum class FlowRegime { kNone, kLaminar, kTransitional, kTurbulent };
+enum class FlowRegime : std::uint8_t { kNone, kLaminar, kTransitional, kTurbulent };
 
 const char* regime_name(FlowRegime r);
 
 // The mode the solver chose for a control valve.
-enum class ValveMode { kNone, kActive, kOpen, kClosed };
+enum class ValveMode : std::uint8_t { kNone, kActive, kOpen, kClosed };
 const char* valve_mode_name(ValveMode m);
 
 struct NodeState {
