@@ -410,7 +410,17 @@ bool check_pipe(const Pipe& p, HeadlossLaw law, bool law_value_given, Diagnostic
 }
 
 PipeEnds ends_of(const PipeRead& p) {
-  return {p.from_id, p.to_id, p.roughness_given, p.cfactor_given, p.minor_given, p.valve_pressure};
+  PipeEnds e;
+  e.from_id = p.from_id;
+  e.to_id = p.to_id;
+  if (p.valve_pressure) {
+    e.valve_pressure = p.valve_pressure->value;
+    e.valve_pressure_is_head = p.valve_pressure->is_head;
+  }
+  e.roughness_given = p.roughness_given;
+  e.cfactor_given = p.cfactor_given;
+  e.minor_given = p.minor_given;
+  return e;
 }
 
 bool settle_pipe(Pipe* pipe, const PipeEnds& e, const PipeDefaults& defaults, const Network& net,
@@ -434,7 +444,8 @@ bool settle_pipe(Pipe* pipe, const PipeEnds& e, const PipeDefaults& defaults, co
     // A pressure setting is held at the controlled node: downstream for a PRV, upstream for a
     // PSV; the valve holds the head elevation + pressure head there.
     const Node& at = net.nodes[pipe->kind == LinkKind::kPrv ? *to : *from];
-    pipe->edit_control().valve_head_m = at.elevation_m + e.valve_pressure->to_head_m(net.fluid.density_kgm3);
+    const PendingPressure pressure{*e.valve_pressure, e.valve_pressure_is_head};
+    pipe->edit_control().valve_head_m = at.elevation_m + pressure.to_head_m(net.fluid.density_kgm3);
   }
   *valid = check_pipe(*pipe, net.headloss.law, given, d);
   return true;

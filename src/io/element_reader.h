@@ -86,13 +86,15 @@ bool add_pipe_to_network(PipeRead p, const PipeDefaults& defaults, Network* net,
                          Diagnostics* diagnostics);
 
 // What a link statement leaves to settle once every node is known; the IDs view the text read.
+// 48 bytes: the bulk reader keeps one per link of a large file.
 struct PipeEnds {
   std::string_view from_id;
   std::string_view to_id;
+  OptionalDouble valve_pressure;  // a PRV/PSV setting given as pressure= (PendingPressure)
+  bool valve_pressure_is_head = false;
   bool roughness_given = false;
   bool cfactor_given = false;
   bool minor_given = false;
-  std::optional<PendingPressure> valve_pressure;
 };
 PipeEnds ends_of(const PipeRead& p);
 
