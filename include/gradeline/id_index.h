@@ -1,9 +1,9 @@
 // gradeline public API: the ID lookup of a network's nodes or links.
 //
 // An open-addressing hash table (linear probing, power-of-two capacity, FNV-1a hash) that
-// stores element indices, and short IDs inline: longer IDs stay in the elements only, so adding
-// an element allocates nothing beyond the occasional doubling of one flat array, and a lookup
-// takes a string_view (a field of the line being parsed) without building a std::string.
+// stores element indices, and IDs of up to 7 bytes inline: longer IDs stay in the elements only, so
+// adding an element allocates nothing beyond the occasional doubling of one flat array, and a
+// lookup takes a string_view (a field of the line being parsed) without building a std::string.
 #pragma once
 
 #include <cstdint>
@@ -33,9 +33,8 @@ class IdIndex {
   template <typename IdOf>
   std::optional<std::size_t> find(std::string_view id, IdOf id_of) const {
     if (slots_.empty()) return std::nullopt;
-    const std::uint64_t h = hash(id);
-    const std::uint32_t tag = static_cast<std::uint32_t>(h >> 32);
-    for (std::size_t s = h & mask(); slots_[s].index != kEmpty; s = (s + 1) & mask()) {
+    const std::uint32_t tag = tag_of(id);
+    for (std::size_t s = tag & mask(); slots_[s].index != kEmpty; s = (s + 1) & mask()) {
       if (slots_[s].tag == tag && same(slots_[s], id, id_of)) return slots_[s].index;
     }
     return std::nullopt;
@@ -45,14 +44,13 @@ class IdIndex {
   template <typename IdOf>
   std::pair<std::size_t, bool> insert(std::string_view id, std::size_t index, IdOf id_of) {
     if ((count_ + 1) * 4 > slots_.size() * 3) rehash(slots_.empty() ? 16 : slots_.size() * 2);
-    const std::uint64_t h = hash(id);
-    const std::uint32_t tag = static_cast<std::uint32_t>(h >> 32);
-    std::size_t s = h & mask();
+    const std::uint32_t tag = tag_of(id);
+    std::size_t s = tag & mask();
     for (; slots_[s].index != kEmpty; s = (s + 1) & mask()) {
       if (slots_[s].tag == tag && same(slots_[s], id, id_of)) return {slots_[s].index, false};
     }
     Slot& slot = slots_[s];
-    slot = {static_cast<std::uint32_t>(h), tag, static_cast<std::uint32_t>(index), kLongId, {}};
+    slot = {tag, static_cast<std::uint32_t>(index), kLongId, {}};
     if (id.size() <= kInlineId) {
       slot.length = static_cast<std::uint8_t>(id.size());
       std::memcpy(slot.chars, id.data(), id.size());
@@ -63,7 +61,7 @@ class IdIndex {
 
   // A hint that `id` will be looked up soon: starts loading its first slot into the cache.
   void prefetch(std::string_view id) const {
-    if (!slots_.empty()) prefetch_address(&slots_[hash(id) & mask()]);
+    if (!slots_.empty()) prefetch_address(&slots_[tag_of(id) & mask()]);
   }
 
   // The second stage of a prefetched lookup, once the slot of `id` is likely in the cache:
@@ -72,12 +70,9 @@ class IdIndex {
   template <typename Touch>
   void prefetch_element(std::string_view id, Touch touch) const {
     if (slots_.empty()) return;
-    const std::uint64_t h = hash(id);
-    const Slot& slot = slots_[h & mask()];
-    if (slot.index != kEmpty && slot.length == kLongId &&
-        slot.tag == static_cast<std::uint32_t>(h >> 32)) {
-      touch(slot.index);
-    }
+    const std::uint32_t tag = tag_of(id);
+    const Slot& slot = slots_[tag & mask()];
+    if (slot.index != kEmpty && slot.length == kLongId && slot.tag == tag) touch(slot.index);
   }
 
   void clear() {
@@ -92,13 +87,13 @@ class IdIndex {
 
  private:
   static constexpr std::uint32_t kEmpty = 0xFFFFFFFFu;
-  static constexpr std::size_t kInlineId = 11;
+  static constexpr std::size_t kInlineId = 7;
   static constexpr std::uint8_t kLongId = 0xFF;
-  // 24 bytes: the low half of the hash places the slot again on a rehash, the high half
-  // (tag) screens out almost every non-matching ID, and an ID of up to 11 bytes is kept in the
-  // slot itself, so that a lookup of it touches no element (one cache miss instead of two).
+  // 16 bytes, four to a cache line: 32 bits of the hash (its low bits place the slot, so a
+  // rehash needs no element, and all of them screen out almost every non-matching ID), and an
+  // ID of up to 7 bytes kept in the slot itself, so that a lookup of it touches no element
+  // (one cache miss instead of two).
   struct Slot {
-    std::uint32_t low = 0;
     std::uint32_t tag = 0;
     std::uint32_t index = kEmpty;
     std::uint8_t length = kLongId;  // of the ID kept in `chars`, or kLongId
@@ -113,10 +108,12 @@ class IdIndex {
     return id.size() > kInlineId && id_of(slot.index) == id;
   }
 
-  static std::uint64_t hash(std::string_view id) {
+  // FNV-1a, folded to 32 bits.
+  static std::uint32_t tag_of(std::string_view id) {
     std::uint64_t h = 1469598103934665603ull;
     for (unsigned char c : id) h = (h ^ c) * 1099511628211ull;
-    return h ^ (h >> 29);
+    h ^= h >> 29;
+    return static_cast<std::uint32_t>(h ^ (h >> 32));
   }
   std::size_t mask() const { return slots_.size() - 1; }
   void rehash(std::size_t capacity) {
@@ -127,7 +124,7 @@ class IdIndex {
     slots_.assign(capacity, Slot{});
     for (const Slot& o : old) {
       if (o.index == kEmpty) continue;
-      std::size_t s = o.low & mask();
+      std::size_t s = o.tag & mask();
       while (slots_[s].index != kEmpty) s = (s + 1) & mask();
       slots_[s] = o;
     }
