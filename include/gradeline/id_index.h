@@ -1,9 +1,11 @@
 // gradeline public API: the ID lookup of a network's nodes or links.
 //
 // An open-addressing hash table (linear probing, power-of-two capacity, FNV-1a hash) that
-// stores element indices, and IDs of up to 7 bytes inline: longer IDs stay in the elements only, so
-// adding an element allocates nothing beyond the occasional doubling of one flat array, and a
-// lookup takes a string_view (a field of the line being parsed) without building a std::string.
+// stores element indices, and IDs of up to 7 bytes inline: longer IDs stay in the elements
+// only, so adding an element allocates nothing beyond the occasional doubling of one flat
+// array, and a lookup takes a string_view (a field of the line being parsed) without building
+// a std::string. Measured at 10^6 pipes against 24-byte slots with 11 bytes inline: parse
+// 0.44 -> 0.41 s with IDs of up to 7 bytes, 0.55 -> 0.50 s with 13, the same with 8 or 9.
 #pragma once
 
 #include <cstdint>
