@@ -107,13 +107,14 @@ CatalogueResult parse_catalogue_text(std::string_view text, const std::string& f
 }
 
 CatalogueResult parse_catalogue_file(const std::string& path, HeadlossLaw law) {
-  std::string text, why;
+  FileText text;
+  std::string why;
   if (!read_text_file(path, &text, &why)) {
     CatalogueResult r;
     r.errors.push_back({path, 0, "cannot read file: " + why});
     return r;
   }
-  return parse_catalogue_text(text, path, law);
+  return parse_catalogue_text(text.view(), path, law);
 }
 
 }  // namespace gradeline

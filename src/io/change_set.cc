@@ -277,13 +277,14 @@ ChangeResult apply_change_text(std::string_view text, const std::string& file, N
 }
 
 ChangeResult apply_change_file(const std::string& path, Network* net) {
-  std::string text, why;
+  FileText text;
+  std::string why;
   if (!read_text_file(path, &text, &why)) {
     ChangeResult r;
     r.errors.push_back(Diagnostic{path, 0, "cannot read file: " + why});
     return r;
   }
-  return apply_change_text(text, path, net);
+  return apply_change_text(text.view(), path, net);
 }
 
 }  // namespace gradeline

@@ -105,7 +105,7 @@ class NetworkParser {
     }
   }
   std::vector<PipeEnds> ends_;
-  std::deque<std::string> texts_;
+  std::deque<FileText> texts_;
   std::vector<PendingReservoir> pending_reservoirs_;
   std::vector<CaseRead> cases_;
   std::vector<LimitRead> limits_;
@@ -137,7 +137,7 @@ void NetworkParser::parse_file(const std::string& path, int depth, const std::st
     return;
   }
   std::string why;
-  std::string& text = texts_.emplace_back();
+  FileText& text = texts_.emplace_back();
   if (!read_text_file(path, &text, &why)) {
     if (from_file.empty()) {
       error(path, 0, "cannot read file: " + why);
@@ -147,7 +147,7 @@ void NetworkParser::parse_file(const std::string& path, int depth, const std::st
     return;
   }
   include_stack_.push_back(key);
-  parse_text(text, path, depth);
+  parse_text(text.view(), path, depth);
   include_stack_.pop_back();
 }
 
@@ -523,7 +523,7 @@ ParseResult NetworkParser::finish() {
 
 }  // namespace
 
-bool read_text_file(const std::string& path, std::string* text, std::string* error) {
+bool read_text_file(const std::string& path, FileText* text, std::string* error) {
   std::error_code ec;
   if (fs::is_directory(path, ec)) {
     *error = "is a directory";
@@ -539,25 +539,29 @@ bool read_text_file(const std::string& path, std::string* text, std::string* err
     *error = "file is larger than 1 GiB (" + std::to_string(size >> 20) + " MiB)";
     return false;
   }
-  // One read into a buffer of the file's size (no stream copies); files whose size is not
-  // known in advance (pipes) are read in chunks.
-  text->clear();
   if (!ec) {
-    text->reserve(static_cast<std::size_t>(size));
-    prefault(text->data(), text->capacity());
-    text->resize(static_cast<std::size_t>(size));
+    // One read into a buffer of the file's size, its pages mapped in one go.
+    const std::size_t n = static_cast<std::size_t>(size);
+    text->data_.reset(new char[n == 0 ? 1 : n]);
+    prefault(text->data_.get(), n);
+    in.read(text->data_.get(), static_cast<std::streamsize>(n));
+    text->size_ = static_cast<std::size_t>(in.gcount());
+    // Done unless the file grew while being read (one that shrank gives what was there).
+    if (text->size_ < n || in.peek() == std::ifstream::traits_type::eof()) return true;
   }
-  in.read(text->data(), static_cast<std::streamsize>(text->size()));
-  std::size_t got = static_cast<std::size_t>(in.gcount());
-  text->resize(got);
+  // A file whose size is not known in advance (a pipe), or that grew: the rest in chunks.
+  std::string rest(text->data_ ? text->data_.get() : "", text->size_);
   char chunk[1 << 16];
   while (in.read(chunk, sizeof chunk) || in.gcount() > 0) {
-    text->append(chunk, static_cast<std::size_t>(in.gcount()));
-    if (static_cast<long long>(text->size()) > kMaxFileBytes) {
+    rest.append(chunk, static_cast<std::size_t>(in.gcount()));
+    if (static_cast<long long>(rest.size()) > kMaxFileBytes) {
       *error = "file is larger than 1 GiB";
       return false;
     }
   }
+  text->data_.reset(new char[rest.size() == 0 ? 1 : rest.size()]);
+  std::memcpy(text->data_.get(), rest.data(), rest.size());
+  text->size_ = rest.size();
   return true;
 }
 

@@ -2,6 +2,7 @@
 // Every error found is reported as "FILE:LINE: error: message", up to a limit.
 #pragma once
 
+#include <memory>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -34,7 +35,19 @@ ParseResult parse_network_file(const std::string& path);
 ParseResult parse_network_text(std::string_view text, const std::string& file_name,
                                std::size_t bulk_from_lines = kBulkReadFromLines);
 
+// The bytes of a file read whole, into a buffer that is not cleared first (at 10^6 pipes,
+// zeroing the 100 MB before the read cost 0.01-0.02 s).
+class FileText {
+ public:
+  std::string_view view() const { return {data_.get(), size_}; }
+
+ private:
+  friend bool read_text_file(const std::string& path, FileText* text, std::string* error);
+  std::unique_ptr<char[]> data_;
+  std::size_t size_ = 0;
+};
+
 // Reads a whole file; false with a reason when it cannot be read.
-bool read_text_file(const std::string& path, std::string* text, std::string* error);
+bool read_text_file(const std::string& path, FileText* text, std::string* error);
 
 }  // namespace gradeline
