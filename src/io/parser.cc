@@ -222,7 +222,9 @@ void NetworkParser::read_placed(const std::vector<std::string_view>& lines,
     std::size_t slot = 0;
     for (std::size_t i = 0; i < kind.size(); ++i) {
       if (kind[i] == LineKind::kNode) {
-        if (slot + kNodeLookAhead < nodes.size()) net_.prefetch_node(nodes[slot + kNodeLookAhead].id);
+        if (slot + kNodeLookAhead < nodes.size()) {
+          net_.prefetch_node(nodes[slot + kNodeLookAhead].id);
+        }
         if (!net_.try_index_node(slot)) return false;
       }
       slot += kind[i] == LineKind::kNode || kind[i] == LineKind::kNodeOther;

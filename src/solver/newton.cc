@@ -135,7 +135,8 @@ void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>
       return true;
     }
     const double moved = s.flow[k] - evaluated_flow_[k];
-    if (!exact && !laws_[k].is_valve() && std::abs(moved) <= kUpdateRelativeFlow * std::abs(s.flow[k])) {
+    if (!exact && !laws_[k].is_valve() &&
+        std::abs(moved) <= kUpdateRelativeFlow * std::abs(s.flow[k])) {
       headloss_[k] = evaluated_loss_[k] + dh_dq_[k] * moved;
       ++reused_here;
       return true;
@@ -158,7 +159,8 @@ void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>
     // Small networks link by link: a batch's bookkeeping costs more than its vector friction
     // saves on a few dozen links (sizing makes hundreds of thousands of such solves).
     for (std::ptrdiff_t k = 0; k < links; ++k) {  // no OpenMP region
-      if (!settled(k, reused)) store(k, evaluate_link(static_cast<std::size_t>(k), s.flow[k]), evaluated);
+      if (settled(k, reused)) continue;
+      store(k, evaluate_link(static_cast<std::size_t>(k), s.flow[k]), evaluated);
     }
   } else {
     // Links begin..end-1; the counts are each core's own.
@@ -178,7 +180,9 @@ void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>
         }
       }
       batch.evaluate();
-      for (std::size_t i = 0; i < batched.size(); ++i) store(batched[i], batch.result(i), evaluated_here);
+      for (std::size_t i = 0; i < batched.size(); ++i) {
+        store(batched[i], batch.result(i), evaluated_here);
+      }
     };
     const std::ptrdiff_t blocks = (links + kEvaluationBlock - 1) / kEvaluationBlock;
 #pragma omp parallel for schedule(dynamic, 1) reduction(+ : reused, evaluated)
