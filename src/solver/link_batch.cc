@@ -52,16 +52,16 @@ void LinkBatch::evaluate() {
   // ChainLaws::evaluate does (for a chain of one pipe the sums equal the pipe's own h and
   // dh/dQ, and the solver reads nothing else of a chain).
   const std::size_t links = first_item_.size();
-  first_item_.push_back(static_cast<std::uint32_t>(items_.size()));
   results_.resize(links);
   for (std::size_t i = 0; i < links; ++i) {
-    const std::uint32_t begin = first_item_[i], end = first_item_[i + 1];
+    const std::size_t begin = first_item_[i];
+    const std::size_t end = i + 1 < links ? first_item_[i + 1] : items_.size();
     if (end == begin + 1) {
       results_[i] = items_[begin].eval;
       continue;
     }
     LinkEval sum;
-    for (std::uint32_t j = begin; j < end; ++j) {
+    for (std::size_t j = begin; j < end; ++j) {
       sum.headloss_m += items_[j].eval.headloss_m;
       sum.dh_dq += items_[j].eval.dh_dq;
     }

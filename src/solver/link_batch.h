@@ -37,7 +37,7 @@ class LinkBatch {
   void add_item(const PipeLaw& law, double flow_m3s, double* colebrook_x);
 
   std::vector<Item> items_;
-  std::vector<std::uint32_t> first_item_;  // per link added: its first item; one more at the end
+  std::vector<std::uint32_t> first_item_;  // per link added: its first item
   std::vector<LinkEval> results_;
   // The Colebrook batch: Re, e/D, x (in and out), f, df/dRe, and the item of each.
   std::vector<double> re_, rr_, x_, f_, df_;
