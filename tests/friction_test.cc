@@ -2,6 +2,8 @@
 #include <doctest/doctest.h>
 
 #include <cmath>
+#include <thread>
+#include <vector>
 
 #include "hydraulics/friction.h"
 #include "test_support.h"
@@ -78,6 +80,23 @@ TEST_CASE("the transition is continuous with a continuous slope at Re 2000 and 4
       CHECK(below.df_dre == doctest::Approx(above.df_dre).epsilon(1e-4));
     }
   }
+}
+
+TEST_CASE("transitional f is the same whatever e/D were evaluated before (the edge cache)") {
+  // The values at Re 4000 are kept per thread by e/D; far more e/D than the table holds, in two
+  // orders, must give bit-identical results, equal to a first call on a fresh thread.
+  constexpr int kRoughnesses = 3000;
+  auto rr_of = [](int i) { return 1e-6 * (1.0 + i) * (1.0 + 1e-3 * (i % 7)); };
+  std::vector<double> first(kRoughnesses), again(kRoughnesses);
+  for (int i = 0; i < kRoughnesses; ++i) first[i] = darcy_friction(3000.0, rr_of(i)).f;
+  for (int i = kRoughnesses - 1; i >= 0; --i) again[i] = darcy_friction(3000.0, rr_of(i)).f;
+  for (int i = 0; i < kRoughnesses; i += 97) {
+    double fresh = 0.0;
+    std::thread([&] { fresh = darcy_friction(3000.0, rr_of(i)).f; }).join();
+    CHECK(first[i] == fresh);
+    CHECK(again[i] == fresh);
+  }
+  CHECK(first == again);
 }
 
 TEST_CASE("transitional df/dRe matches central differences") {

@@ -1,11 +1,35 @@
 #include "hydraulics/friction.h"
 
 #include <cmath>
+#include <cstdint>
+#include <cstring>
 
 namespace gradeline {
 namespace {
 constexpr double kTwoOverLn10 = 2.0 / 2.302585092994045684;
+
+// Colebrook's f and df/dRe at Re = 4000, the upper end of the transition, which depend on e/D
+// alone. A network has few distinct e/D (a few commercial diameters per roughness), while a
+// transitional pipe needs these values in every evaluation, so each thread keeps the last ones
+// seen in a small direct-mapped table. An entry holds exactly what colebrook_friction returns
+// for its e/D (the same call, cold), so results are those of calling it every time.
+ColebrookSolution turbulent_edge(double rr) {
+  struct Entry {
+    double rr = -1.0;  // no e/D is negative: an empty entry matches nothing
+    ColebrookSolution c;
+  };
+  constexpr int kBits = 8;
+  thread_local Entry table[1 << kBits];
+  std::uint64_t bits = 0;
+  std::memcpy(&bits, &rr, sizeof bits);
+  Entry& e = table[(bits * 0x9E3779B97F4A7C15ull) >> (64 - kBits)];
+  if (!(e.rr == rr)) {
+    e.c = colebrook_friction(kTurbulentLimitRe, rr);
+    e.rr = rr;
+  }
+  return e.c;
 }
+}  // namespace
 
 double swamee_jain_friction(double re, double rr) {
   const double l = std::log10(rr / 3.7 + 5.74 / std::pow(re, 0.9));
@@ -60,7 +84,7 @@ FrictionFactor darcy_friction(double re, double rr, double* x_hint) {
   // Cubic Hermite on [2000, 4000].
   const double f0 = 64.0 / kLaminarLimitRe;
   const double m0 = -64.0 / (kLaminarLimitRe * kLaminarLimitRe);
-  const ColebrookSolution c = colebrook_friction(kTurbulentLimitRe, rr);
+  const ColebrookSolution c = turbulent_edge(rr);
   const double f1 = c.f;
   const double m1 = c.df_dre;
   const double h = kTurbulentLimitRe - kLaminarLimitRe;
