@@ -141,7 +141,9 @@ int run_solve(const SolveArgs& a, Streams io) {
       report.criteria_block = criteria_line(net, o.criteria) + violations_text(net, o.violations);
     }
     if (outcomes.size() > 1) io.out << "\n";
-    io.out << solve_report_text(net, o.result, a.file, report);
+    write_solve_report(net, o.result, a.file, report, [&](std::string_view piece) {
+      io.out.write(piece.data(), static_cast<std::streamsize>(piece.size()));
+    });
     violated = violated || !o.violations.empty();
   }
   if (!a.json_path.empty() && !write_json_output(a.json_path, inputs, io,

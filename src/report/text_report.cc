@@ -1,12 +1,15 @@
 #include "report/text_report.h"
 
+#include <algorithm>
 #include <cmath>
 #include <cstdarg>
 #include <cstdio>
+#include <vector>
 
 #include "gradeline/version.h"
 #include "model/parallel.h"
 #include "model/units.h"
+#include "report/columns.h"
 #include "report/pump_point.h"
 #include "report/result_totals.h"
 
@@ -25,6 +28,36 @@ void appendf(std::string* out, const char* format, ...) {
 }
 
 std::string rule(std::size_t width) { return std::string(width, '-') + "\n"; }
+
+// The rows of a table, row(i, &text) appending row i's line (or nothing) for i in [0, count),
+// handed to `sink` in order. A large table is formed in blocks on every core, a group of
+// blocks at a time, so the whole table is never held at once.
+template <typename Row>
+void table_rows(std::size_t count, const Row& row, const TextSink& sink) {
+  constexpr std::size_t kRowsPerBlock = 4096;
+  constexpr std::size_t kBlocksPerGroup = 32;
+  std::string text;
+  if (static_cast<std::ptrdiff_t>(count) < kParallelElements) {
+    for (std::size_t i = 0; i < count; ++i) row(i, &text);
+    sink(text);
+    return;
+  }
+  std::vector<std::string> block(kBlocksPerGroup);
+  const std::size_t blocks = (count + kRowsPerBlock - 1) / kRowsPerBlock;
+  for (std::size_t first = 0; first < blocks; first += kBlocksPerGroup) {
+    const std::ptrdiff_t in_group =
+        static_cast<std::ptrdiff_t>(std::min(kBlocksPerGroup, blocks - first));
+#pragma omp parallel for schedule(dynamic, 1)
+    for (std::ptrdiff_t b = 0; b < in_group; ++b) {
+      std::string& t = block[b];
+      t.clear();
+      const std::size_t begin = (first + b) * kRowsPerBlock;
+      const std::size_t end = std::min(count, begin + kRowsPerBlock);
+      for (std::size_t i = begin; i < end; ++i) row(i, &t);
+    }
+    for (std::ptrdiff_t b = 0; b < in_group; ++b) sink(block[b]);
+  }
+}
 
 std::string pumps_text(const Network& net, const SolveResult& r) {
   const DisplayUnit flow = display_flow(net.units);
@@ -128,10 +161,13 @@ std::string solve_summary_text(const Network& net, const SolveResult& r, const s
   return out;
 }
 
-std::string solve_report_text(const Network& net, const SolveResult& r, const std::string& file,
-                              const ReportOptions& options) {
+void write_solve_report(const Network& net, const SolveResult& r, const std::string& file,
+                        const ReportOptions& options, const TextSink& sink) {
   std::string out = solve_summary_text(net, r, file, options.case_name);
-  if (!r.summary.converged()) return out;
+  if (!r.summary.converged()) {
+    sink(out);
+    return;
+  }
   out += options.criteria_block;
   const DisplayUnit flow = display_flow(net.units);
   const DisplayUnit len = display_length(net.units);
@@ -222,7 +258,11 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
                   ("demand " + std::string(flow.name)).c_str(), "note");
     out += header;
     out += "  " + rule(std::string(header).size() - 3);
-    for (std::size_t n = 0; n < net.nodes.size(); ++n) {
+    sink(out);
+    out.clear();
+    // "  %-14s %10.2f %10.2f %11.2f %11.1f %11.3f  %s\n", with "-" for the head and pressures
+    // of an unsupplied node.
+    table_rows(net.nodes.size(), [&](std::size_t n, std::string* text) {
       const Node& node = net.nodes[n];
       const NodeState& ns = r.nodes[n];
       const char* note = node.kind == NodeKind::kTank  ? (node.receives_only() ? "tank, at min level"
@@ -231,15 +271,17 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
                          : !ns.supplied       ? "UNSUPPLIED"
                          : ns.pressure_m < 0  ? "NEGATIVE"
                                               : "";
-      if (!ns.supplied) {
-        appendf(&out, "  %-14s %10.2f %10s %11s %11s %11.3f  %s\n", node.id.c_str(),
-                node.elevation_m * len.per_si, "-", "-", "-", ns.demand_m3s * flow.per_si, note);
-        continue;
+      Columns row(text);
+      row.text("  ").left(node.id, 14).text(" ").fixed(node.elevation_m * len.per_si, 10, 2);
+      if (ns.supplied) {
+        row.text(" ").fixed(ns.head_m * len.per_si, 10, 2).text(" ")
+            .fixed(ns.pressure_m * len.per_si, 11, 2).text(" ")
+            .fixed(ns.pressure_pa * pres.per_si, 11, 1);
+      } else {
+        row.text(" ").right("-", 10).text(" ").right("-", 11).text(" ").right("-", 11);
       }
-      appendf(&out, "  %-14s %10.2f %10.2f %11.2f %11.1f %11.3f  %s\n", node.id.c_str(),
-              node.elevation_m * len.per_si, ns.head_m * len.per_si, ns.pressure_m * len.per_si,
-              ns.pressure_pa * pres.per_si, ns.demand_m3s * flow.per_si, note);
-    }
+      row.text(" ").fixed(ns.demand_m3s * flow.per_si, 11, 3).text("  ").text(note).text("\n");
+    }, sink);
 
     out += "\npipes\n";
     std::snprintf(header, sizeof header, "  %-10s %-10s %-10s %9s %8s %10s %8s %8s %9s %9s %7s  %s\n",
@@ -249,28 +291,44 @@ std::string solve_report_text(const Network& net, const SolveResult& r, const st
                   "hL m/km", "Re", "f", "regime");
     out += header;
     out += "  " + rule(std::string(header).size() - 3);
-    for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+    sink(out);
+    out.clear();
+    // "  %-10s %-10s %-10s %9.1f %8.1f %10.3f %8.3f %8.3f %9.3f %9.3g %7.4f  %s\n"; a link
+    // that is not open shows a zero flow and "-" for the rest.
+    table_rows(net.pipes.size(), [&](std::size_t k, std::string* text) {
       const Pipe& p = net.pipes[k];
       const LinkState& ls = r.links[k];
-      if (p.is_pump() || p.is_valve()) continue;
-      appendf(&out, "  %-10s %-10s %-10s %9.1f %8.1f ", p.id.c_str(), net.nodes[p.from].id.c_str(),
-              net.nodes[p.to].id.c_str(), p.length_m * len.per_si, p.diameter_m * dia.per_si);
+      if (p.is_pump() || p.is_valve()) return;
+      Columns row(text);
+      row.text("  ").left(p.id, 10).text(" ").left(net.nodes[p.from].id, 10).text(" ")
+          .left(net.nodes[p.to].id, 10).text(" ").fixed(p.length_m * len.per_si, 9, 1).text(" ")
+          .fixed(p.diameter_m * dia.per_si, 8, 1).text(" ");
       if (!ls.open) {
-        appendf(&out, "%10s %8s %8s %9s %9s %7s  %s\n", "0", "-", "-", "-", "-", "-",
-                ls.closed_by_check_valve       ? "closed (check valve)"
-                : p.status == LinkStatus::kClosed ? "closed"
-                                                  : "unsupplied");
-        continue;
+        row.right("0", 10).text(" ").right("-", 8).text(" ").right("-", 8).text(" ").right("-", 9)
+            .text(" ").right("-", 9).text(" ").right("-", 7).text("  ")
+            .text(ls.closed_by_check_valve           ? "closed (check valve)"
+                  : p.status == LinkStatus::kClosed ? "closed"
+                                                    : "unsupplied")
+            .text("\n");
+        return;
       }
-      appendf(&out, "%10.3f %8.3f %8.3f %9.3f %9.3g %7.4f  %s\n", ls.flow_m3s * flow.per_si,
-              ls.velocity_ms * vel.per_si, ls.headloss_m * len.per_si,
-              ls.headloss_m / p.length_m * 1e3, ls.reynolds, ls.friction_factor,
-              regime_name(ls.regime));
-    }
+      row.fixed(ls.flow_m3s * flow.per_si, 10, 3).text(" ").fixed(ls.velocity_ms * vel.per_si, 8, 3)
+          .text(" ").fixed(ls.headloss_m * len.per_si, 8, 3).text(" ")
+          .fixed(ls.headloss_m / p.length_m * 1e3, 9, 3).text(" ").general(ls.reynolds, 9, 3)
+          .text(" ").fixed(ls.friction_factor, 7, 4).text("  ").text(regime_name(ls.regime))
+          .text("\n");
+    }, sink);
   }
   if (options.tables) out += pumps_text(net, r) + valves_text(net, r);
   out += "\n";
   out += kCaution;
+  sink(out);
+}
+
+std::string solve_report_text(const Network& net, const SolveResult& r, const std::string& file,
+                              const ReportOptions& options) {
+  std::string out;
+  write_solve_report(net, r, file, options, [&](std::string_view piece) { out += piece; });
   return out;
 }
 

@@ -1,9 +1,11 @@
 // The human report of a solve: a summary block (status, iterations, residuals, demand, inflow
 // from each source), warnings, then every node and every link, in the file's unit system.
-// Returns text; only the command line prints.
+// The text goes to a sink piece by piece, or comes back whole; only the command line prints.
 #pragma once
 
+#include <functional>
 #include <string>
+#include <string_view>
 
 #include "gradeline/network.h"
 #include "gradeline/solve_summary.h"
@@ -25,6 +27,14 @@ struct ReportOptions {
 
 std::string solve_summary_text(const Network& network, const SolveResult& result,
                                const std::string& file, const std::string& case_name = "");
+// Receives the report's text in order, a piece at a time.
+using TextSink = std::function<void(std::string_view)>;
+
+// The report, piece by piece: the tables of a large network are formed in blocks on every
+// core and handed over as they are done, so a million-element report is never held whole.
+void write_solve_report(const Network& network, const SolveResult& result, const std::string& file,
+                        const ReportOptions& options, const TextSink& sink);
+// The same text as one string.
 std::string solve_report_text(const Network& network, const SolveResult& result,
                               const std::string& file, const ReportOptions& options = {});
 

@@ -7,28 +7,34 @@ enum : char { kCore = 0, kLeaf = 1, kInterior = 2 };
 
 // Per node: how many live links meet it, how many of those are eliminable, and the XOR of
 // their indices. A node with one live link finds it as `xor_links` without a scan of its
-// incidence, and one with two finds the other as `xor_links ^ came_by`.
-struct LiveLinks {
-  std::vector<int> degree;
-  std::vector<int> eliminable_degree;
-  std::vector<std::uint32_t> xor_links;
+// incidence, and one with two finds the other as `xor_links ^ came_by`. The three live side by
+// side (one record per node), since every step of the counting and peeling touches all three
+// of a node reached at random.
+struct LiveNode {
+  std::int32_t degree = 0;
+  std::int32_t eliminable_degree = 0;
+  std::uint32_t xor_links = 0;
+};
 
-  void remove(std::uint32_t node, std::uint32_t link) {
-    --degree[node];
-    --eliminable_degree[node];
-    xor_links[node] ^= link;
+struct LiveLinks {
+  std::vector<LiveNode> node;
+
+  void remove(std::uint32_t n, std::uint32_t link) {
+    LiveNode& v = node[n];
+    --v.degree;
+    --v.eliminable_degree;
+    v.xor_links ^= link;
   }
 };
 
 LiveLinks count_links(const Topology& t, const std::vector<char>& eliminable) {
-  const std::size_t nodes = t.fixed_head.size();
-  LiveLinks live{std::vector<int>(nodes, 0), std::vector<int>(nodes, 0),
-                 std::vector<std::uint32_t>(nodes, 0)};
+  LiveLinks live{std::vector<LiveNode>(t.fixed_head.size())};
   for (std::uint32_t k = 0; k < t.from.size(); ++k) {
     for (std::uint32_t n : {t.from[k], t.to[k]}) {
-      ++live.degree[n];
-      live.eliminable_degree[n] += eliminable[k];
-      live.xor_links[n] ^= k;
+      LiveNode& v = live.node[n];
+      ++v.degree;
+      v.eliminable_degree += eliminable[k];
+      v.xor_links ^= k;
     }
   }
   return live;
@@ -45,13 +51,13 @@ void peel_trees(const Topology& t, const std::vector<char>& eliminable, LiveLink
   const std::size_t nodes = t.fixed_head.size();
   std::vector<std::uint32_t> stack;
   for (std::size_t n = 0; n < nodes; ++n) {
-    if (!t.fixed_head[n] && live->degree[n] == 1) stack.push_back(static_cast<std::uint32_t>(n));
+    if (!t.fixed_head[n] && live->node[n].degree == 1) stack.push_back(static_cast<std::uint32_t>(n));
   }
   while (!stack.empty()) {
     const std::uint32_t leaf = stack.back();
     stack.pop_back();
-    if (live->degree[leaf] != 1 || (*role)[leaf] != kCore) continue;
-    const std::uint32_t link = live->xor_links[leaf];
+    if (live->node[leaf].degree != 1 || (*role)[leaf] != kCore) continue;
+    const std::uint32_t link = live->node[leaf].xor_links;
     if (!eliminable[link]) continue;
     const std::uint32_t parent = other_end(t, link, leaf);
     (*link_live)[link] = 0;
@@ -61,7 +67,7 @@ void peel_trees(const Topology& t, const std::vector<char>& eliminable, LiveLink
     r->tree_link.push_back(link);
     r->tree_leaf.push_back(leaf);
     r->tree_parent.push_back(parent);
-    if (live->degree[parent] == 1 && !t.fixed_head[parent]) stack.push_back(parent);
+    if (live->node[parent].degree == 1 && !t.fixed_head[parent]) stack.push_back(parent);
   }
 }
 
@@ -88,7 +94,7 @@ void collapse_chains(const Topology& t, const std::vector<char>& eliminable,
       at = other_end(t, k, at);
       ends.push_back(at);
       if (!interior[at]) break;
-      k = live.xor_links[at] ^ k;
+      k = live.node[at].xor_links ^ k;
     }
     if (at == a) continue;  // a ring hanging from one node: kept
     const std::uint32_t c_start = static_cast<std::uint32_t>(r->member_link.size());
@@ -140,8 +146,8 @@ Reduction reduce_topology(const Network& net, const Topology& t,
   // Interior: a core junction whose only two live links are both eliminable.
   std::vector<char> interior(nodes, 0);
   for (std::size_t n = 0; n < nodes; ++n) {
-    interior[n] = role[n] == kCore && !t.fixed_head[n] && live.degree[n] == 2 &&
-                  live.eliminable_degree[n] == 2;
+    interior[n] = role[n] == kCore && !t.fixed_head[n] && live.node[n].degree == 2 &&
+                  live.node[n].eliminable_degree == 2;
   }
   collapse_chains(t, eliminable, link_live, live, interior, &role, &in_chain, &r);
 
