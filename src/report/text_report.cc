@@ -63,9 +63,10 @@ std::string pumps_text(const Network& net, const SolveResult& r) {
   const DisplayUnit flow = display_flow(net.units);
   const DisplayUnit len = display_length(net.units);
   std::string out;
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+  const std::vector<std::size_t> pumps = indices_where(
+      static_cast<std::ptrdiff_t>(net.pipes.size()), [&](std::ptrdiff_t k) { return net.pipes[k].is_pump(); });
+  for (std::size_t k : pumps) {
     const Pipe& p = net.pipes[k];
-    if (!p.is_pump()) continue;
     if (out.empty()) {
       out = "\npumps\n";
       appendf(&out, "  %-10s %-10s %-10s %10s %9s %9s %9s %6s  %s\n", "id", "from", "to",
@@ -90,9 +91,10 @@ std::string valves_text(const Network& net, const SolveResult& r) {
   const DisplayUnit flow = display_flow(net.units);
   const DisplayUnit len = display_length(net.units);
   std::string out;
-  for (std::size_t k = 0; k < net.pipes.size(); ++k) {
+  const std::vector<std::size_t> valves = indices_where(
+      static_cast<std::ptrdiff_t>(net.pipes.size()), [&](std::ptrdiff_t k) { return net.pipes[k].is_valve(); });
+  for (std::size_t k : valves) {
     const Pipe& p = net.pipes[k];
-    if (!p.is_valve()) continue;
     if (out.empty()) {
       out = "\nvalves\n";
       appendf(&out, "  %-10s %-9s %-10s %-10s %10s %9s %12s  %s\n", "id", "kind", "from", "to",
