@@ -3,6 +3,8 @@
 
 #include <cmath>
 #include <cstdint>
+#include <string>
+#include <string_view>
 #include <vector>
 
 #include "model/parallel.h"
@@ -69,5 +71,29 @@ TEST_CASE("sum_by_index gives the serial sums, to round-off, with every contribu
   const std::vector<double> sums = balance(flow);
   for (std::size_t n = 0; n < nodes; ++n) {
     CHECK(std::abs(sums[n] - serial[n]) <= kRelativeTolerance * (1.0 + std::abs(serial[n])));
+  }
+}
+
+TEST_CASE("text_in_order hands over the serial loop's text, in order, below and above the threshold") {
+  for (std::ptrdiff_t count : {std::ptrdiff_t{0}, std::ptrdiff_t{17}, kParallelElements - 1,
+                               kParallelElements, 3 * kParallelElements + 7, std::ptrdiff_t{300000}}) {
+    Lcg g;
+    std::vector<int> value(static_cast<std::size_t>(count));
+    for (int& v : value) v = static_cast<int>(g.next() % 1000);
+    // Element i writes a line whose length varies, or nothing when its value ends in 7.
+    auto write = [&](std::size_t i, std::string* text) {
+      if (value[i] % 10 == 7) return;
+      *text += std::to_string(i) + ":" + std::string(static_cast<std::size_t>(value[i] % 13), '#') + "\n";
+    };
+    std::string serial;
+    for (std::size_t i = 0; i < value.size(); ++i) write(i, &serial);
+    std::string joined;
+    int pieces = 0;
+    text_in_order(static_cast<std::size_t>(count), write, [&](std::string_view piece) {
+      joined += piece;
+      ++pieces;
+    });
+    CHECK(joined == serial);
+    CHECK(pieces >= (count >= kParallelElements ? 2 : 1));
   }
 }

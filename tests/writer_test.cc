@@ -98,3 +98,27 @@ TEST_CASE("exact_number gives the shortest text that reads back exactly") {
   CHECK(exact_number(0.1 + 0.2) == "0.30000000000000004");
   CHECK(exact_number(1e-6) == "1e-06");
 }
+
+TEST_CASE("a network large enough to be written in blocks on every core round-trips") {
+  // 30,000 nodes and pipes in a chain with side branches, varied values and optional keys.
+  std::string text = "units SI\ndefaults roughness=0.15\nreservoir R head=70 at=0,0\n";
+  constexpr int kNodes = 30000;
+  for (int i = 0; i < kNodes; ++i) {
+    text += "node N" + std::to_string(i) + " elevation=" + std::to_string(10 + i % 29) + "." +
+            std::to_string(i % 10) + (i % 3 ? " demand=0." + std::to_string(1 + i % 7) : "") +
+            (i % 5 ? "" : " at=" + std::to_string(i) + "," + std::to_string(-i)) + "\n";
+  }
+  for (int i = 0; i < kNodes; ++i) {
+    text += "pipe P" + std::to_string(i) + " " + (i ? "N" + std::to_string(i - 1) : "R") + " N" +
+            std::to_string(i) + " length=" + std::to_string(20 + i % 41) + " diameter=" +
+            std::to_string(100 + 50 * (i % 5)) + (i % 11 ? "" : " roughness=0.01") +
+            (i % 13 ? "" : " minor=0.5") + (i % 97 ? "" : " check=yes") + "\n";
+  }
+  Network first = testing::parse_or_fail(text);
+  REQUIRE(first.pipes.size() == static_cast<std::size_t>(kNodes));
+  const std::string written = write_network(first);
+  ParseResult second = parse_network_text(written, "written.gln");
+  REQUIRE(second.ok());
+  check_same(first, second.network);
+  CHECK(write_network(second.network) == written);
+}

@@ -6,7 +6,9 @@
 // helpers run a plain loop and never enter one.
 #pragma once
 
+#include <algorithm>
 #include <cstddef>
+#include <string>
 #include <vector>
 
 namespace gradeline {
@@ -77,6 +79,37 @@ std::vector<double> sum_by_index(std::size_t size, std::ptrdiff_t count, Add&& a
   for_each_index(static_cast<std::ptrdiff_t>(size),
                  [&](std::ptrdiff_t n) { totals[n] += second[n]; });
   return totals;
+}
+
+// Text for the elements [0, count), in order: write(i, &text) appends element i's text (or
+// nothing), and take(text) receives it piece by piece. From kParallelElements on, blocks of
+// elements are formed on every core, a group of blocks at a time, and handed over in order, so
+// the whole text is never held at once; the text is the same as from one loop.
+template <typename Write, typename Take>
+void text_in_order(std::size_t count, const Write& write, const Take& take) {
+  constexpr std::size_t kPerBlock = 4096;
+  constexpr std::size_t kBlocksPerGroup = 32;
+  if (static_cast<std::ptrdiff_t>(count) < kParallelElements) {
+    std::string text;
+    for (std::size_t i = 0; i < count; ++i) write(i, &text);
+    take(text);
+    return;
+  }
+  std::vector<std::string> block(kBlocksPerGroup);
+  const std::size_t blocks = (count + kPerBlock - 1) / kPerBlock;
+  for (std::size_t first = 0; first < blocks; first += kBlocksPerGroup) {
+    const std::ptrdiff_t in_group =
+        static_cast<std::ptrdiff_t>(std::min(kBlocksPerGroup, blocks - first));
+#pragma omp parallel for schedule(dynamic, 1)
+    for (std::ptrdiff_t b = 0; b < in_group; ++b) {
+      std::string& text = block[b];
+      text.clear();
+      const std::size_t begin = (first + b) * kPerBlock;
+      const std::size_t end = std::min(count, begin + kPerBlock);
+      for (std::size_t i = begin; i < end; ++i) write(i, &text);
+    }
+    for (std::ptrdiff_t b = 0; b < in_group; ++b) take(block[b]);
+  }
 }
 
 }  // namespace gradeline

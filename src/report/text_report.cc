@@ -29,36 +29,6 @@ void appendf(std::string* out, const char* format, ...) {
 
 std::string rule(std::size_t width) { return std::string(width, '-') + "\n"; }
 
-// The rows of a table, row(i, &text) appending row i's line (or nothing) for i in [0, count),
-// handed to `sink` in order. A large table is formed in blocks on every core, a group of
-// blocks at a time, so the whole table is never held at once.
-template <typename Row>
-void table_rows(std::size_t count, const Row& row, const TextSink& sink) {
-  constexpr std::size_t kRowsPerBlock = 4096;
-  constexpr std::size_t kBlocksPerGroup = 32;
-  std::string text;
-  if (static_cast<std::ptrdiff_t>(count) < kParallelElements) {
-    for (std::size_t i = 0; i < count; ++i) row(i, &text);
-    sink(text);
-    return;
-  }
-  std::vector<std::string> block(kBlocksPerGroup);
-  const std::size_t blocks = (count + kRowsPerBlock - 1) / kRowsPerBlock;
-  for (std::size_t first = 0; first < blocks; first += kBlocksPerGroup) {
-    const std::ptrdiff_t in_group =
-        static_cast<std::ptrdiff_t>(std::min(kBlocksPerGroup, blocks - first));
-#pragma omp parallel for schedule(dynamic, 1)
-    for (std::ptrdiff_t b = 0; b < in_group; ++b) {
-      std::string& t = block[b];
-      t.clear();
-      const std::size_t begin = (first + b) * kRowsPerBlock;
-      const std::size_t end = std::min(count, begin + kRowsPerBlock);
-      for (std::size_t i = begin; i < end; ++i) row(i, &t);
-    }
-    for (std::ptrdiff_t b = 0; b < in_group; ++b) sink(block[b]);
-  }
-}
-
 std::string pumps_text(const Network& net, const SolveResult& r) {
   const DisplayUnit flow = display_flow(net.units);
   const DisplayUnit len = display_length(net.units);
@@ -264,7 +234,7 @@ void write_solve_report(const Network& net, const SolveResult& r, const std::str
     out.clear();
     // "  %-14s %10.2f %10.2f %11.2f %11.1f %11.3f  %s\n", with "-" for the head and pressures
     // of an unsupplied node.
-    table_rows(net.nodes.size(), [&](std::size_t n, std::string* text) {
+    text_in_order(net.nodes.size(), [&](std::size_t n, std::string* text) {
       const Node& node = net.nodes[n];
       const NodeState& ns = r.nodes[n];
       const char* note = node.kind == NodeKind::kTank  ? (node.receives_only() ? "tank, at min level"
@@ -297,7 +267,7 @@ void write_solve_report(const Network& net, const SolveResult& r, const std::str
     out.clear();
     // "  %-10s %-10s %-10s %9.1f %8.1f %10.3f %8.3f %8.3f %9.3f %9.3g %7.4f  %s\n"; a link
     // that is not open shows a zero flow and "-" for the rest.
-    table_rows(net.pipes.size(), [&](std::size_t k, std::string* text) {
+    text_in_order(net.pipes.size(), [&](std::size_t k, std::string* text) {
       const Pipe& p = net.pipes[k];
       const LinkState& ls = r.links[k];
       if (p.is_pump() || p.is_valve()) return;
