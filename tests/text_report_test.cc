@@ -18,7 +18,8 @@ using namespace gradeline;
 namespace {
 
 // A ladder of two rails of `rungs` junctions each, fed from a reservoir at every 500th rung:
-// every rung and every rail pipe closes a loop. More nodes and pipes than kParallelElements.
+// every rung and every rail pipe closes a loop. The rails are closed before the last ten
+// rungs, which are then unsupplied. More nodes and pipes than kParallelElements.
 Network ladder(int rungs) {
   std::ostringstream text;
   text << "units SI\ndefaults roughness=0.1\n";
@@ -32,8 +33,11 @@ Network ladder(int rungs) {
     text << "pipe C" << i << " A" << i << " B" << i << " length=15 diameter=" << (100 + i % 3 * 50)
          << "\n";
     if (i + 1 < rungs) {
-      text << "pipe RA" << i << " A" << i << " A" << i + 1 << " length=20 diameter=200\n";
-      text << "pipe RB" << i << " B" << i << " B" << i + 1 << " length=20 diameter=150\n";
+      const char* status = i + 11 == rungs ? " status=closed" : "";
+      text << "pipe RA" << i << " A" << i << " A" << i + 1 << " length=20 diameter=200" << status
+           << "\n";
+      text << "pipe RB" << i << " B" << i << " B" << i + 1 << " length=20 diameter=150" << status
+           << "\n";
     }
   }
   return testing::parse_or_fail(text.str());
@@ -70,21 +74,42 @@ TEST_CASE("a large report's table rows are the printf rows of every node and pip
   const DisplayUnit flow = display_flow(net.units), dia = display_diameter(net.units);
   const DisplayUnit vel = display_velocity(net.units);
   char row[512];
+  std::size_t unsupplied = 0;
   for (std::size_t n = 0; n < net.nodes.size(); ++n) {
     const NodeState& ns = r.nodes[n];
-    std::snprintf(row, sizeof row, "  %-14s %10.2f %10.2f %11.2f %11.1f %11.3f  %s\n",
-                  net.nodes[n].id.c_str(), net.nodes[n].elevation_m * len.per_si,
-                  ns.head_m * len.per_si, ns.pressure_m * len.per_si, ns.pressure_pa * pres.per_si,
-                  ns.demand_m3s * flow.per_si, net.nodes[n].is_fixed_head() ? "fixed head" : "");
+    if (!ns.supplied) {
+      ++unsupplied;
+      std::snprintf(row, sizeof row, "  %-14s %10.2f %10s %11s %11s %11.3f  %s\n",
+                    net.nodes[n].id.c_str(), net.nodes[n].elevation_m * len.per_si, "-", "-", "-",
+                    ns.demand_m3s * flow.per_si, "UNSUPPLIED");
+    } else {
+      std::snprintf(row, sizeof row, "  %-14s %10.2f %10.2f %11.2f %11.1f %11.3f  %s\n",
+                    net.nodes[n].id.c_str(), net.nodes[n].elevation_m * len.per_si,
+                    ns.head_m * len.per_si, ns.pressure_m * len.per_si,
+                    ns.pressure_pa * pres.per_si, ns.demand_m3s * flow.per_si,
+                    net.nodes[n].is_fixed_head() ? "fixed head" : "");
+    }
     REQUIRE(lines[at + n] == row);
   }
+  CHECK(unsupplied == 20);
   at += net.nodes.size();
   while (at < lines.size() && lines[at] != "pipes\n") ++at;
   at += 3;
   REQUIRE(at + net.pipes.size() <= lines.size());
+  std::size_t not_open = 0;
   for (std::size_t k = 0; k < net.pipes.size(); ++k) {
     const Pipe& p = net.pipes[k];
     const LinkState& ls = r.links[k];
+    if (!ls.open) {
+      ++not_open;
+      std::snprintf(row, sizeof row,
+                    "  %-10s %-10s %-10s %9.1f %8.1f %10s %8s %8s %9s %9s %7s  %s\n",
+                    p.id.c_str(), net.nodes[p.from].id.c_str(), net.nodes[p.to].id.c_str(),
+                    p.length_m * len.per_si, p.diameter_m * dia.per_si, "0", "-", "-", "-", "-",
+                    "-", p.status == LinkStatus::kClosed ? "closed" : "unsupplied");
+      REQUIRE(lines[at + k] == row);
+      continue;
+    }
     std::snprintf(row, sizeof row,
                   "  %-10s %-10s %-10s %9.1f %8.1f %10.3f %8.3f %8.3f %9.3f %9.3g %7.4f  %s\n",
                   p.id.c_str(), net.nodes[p.from].id.c_str(), net.nodes[p.to].id.c_str(),
@@ -94,4 +119,5 @@ TEST_CASE("a large report's table rows are the printf rows of every node and pip
                   regime_name(ls.regime));
     REQUIRE(lines[at + k] == row);
   }
+  CHECK(not_open == 2 + 10 + 2 * 9);  // the closed pair, then the isolated rungs and rails
 }

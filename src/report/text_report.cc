@@ -1,6 +1,5 @@
 #include "report/text_report.h"
 
-#include <algorithm>
 #include <cmath>
 #include <cstdarg>
 #include <cstdio>
