@@ -76,6 +76,7 @@ class GradientSolver {
   const SolveOptions& options_;
   const std::vector<double>& given_demand_;
   std::vector<PipeLaw> laws_;
+  bool any_valve_law_ = false;  // some link's law is a valve's
   SolverCache& cache_;
   const std::vector<double>* initial_flows_;
   ControlValves valves_;
@@ -135,8 +136,8 @@ void GradientSolver::evaluate(const State& s, bool exact, std::vector<LinkState>
       return true;
     }
     const double moved = s.flow[k] - evaluated_flow_[k];
-    if (!exact && !laws_[k].is_valve() &&
-        std::abs(moved) <= kUpdateRelativeFlow * std::abs(s.flow[k])) {
+    if (!exact && std::abs(moved) <= kUpdateRelativeFlow * std::abs(s.flow[k]) &&
+        !(any_valve_law_ && laws_[k].is_valve())) {  // the law is read only where valves are
       headloss_[k] = evaluated_loss_[k] + dh_dq_[k] * moved;
       ++reused_here;
       return true;
@@ -387,6 +388,8 @@ void GradientSolver::prepare_links() {
     laws_[k] = make_pipe_law(net_.pipes[k], net_.headloss, net_.fluid,
                              options_.hw_regularisation_flow_m3s);
   });
+  any_valve_law_ = std::any_of(net_.pipes.begin(), net_.pipes.end(),
+                               [](const Pipe& p) { return p.is_valve(); });
   file_open_ = links_open_in_file(net_);
   cv_closed_.assign(links, 0);
   toggles_.assign(links, 0);
