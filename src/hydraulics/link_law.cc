@@ -78,24 +78,20 @@ LinkEval evaluate_pipe(const PipeLaw& p, double flow, double* colebrook_x) {
     const ColebrookSolution c = colebrook_friction(reynolds, p.relative_roughness, colebrook_x);
     return turbulent_pipe(p, flow, reynolds, c.f, c.df_dre);
   }
+  if (p.kind == LawKind::kDarcyWeisbach && reynolds <= kLaminarLimitRe) {
+    return laminar_pipe(p, flow, reynolds);
+  }
   const double q = std::abs(flow);
   const double sign = flow < 0.0 ? -1.0 : 1.0;
   e.reynolds = q * p.reynolds_per_flow;
   double h = 0.0;
   double dh = 0.0;
-  if (p.kind == LawKind::kDarcyWeisbach) {
-    if (e.reynolds <= kLaminarLimitRe) {
-      h = p.laminar_coef * q;
-      dh = p.laminar_coef;
-      e.regime = q > 0.0 ? FlowRegime::kLaminar : FlowRegime::kNone;
-      e.friction_factor = q > 0.0 ? 64.0 / e.reynolds : 0.0;
-    } else {
-      FrictionFactor f = darcy_friction(e.reynolds, p.relative_roughness, colebrook_x);
-      h = f.f * p.turbulent_coef * q * q;
-      dh = p.turbulent_coef * q * (2.0 * f.f + f.df_dre * e.reynolds);
-      e.regime = f.regime;
-      e.friction_factor = f.f;
-    }
+  if (p.kind == LawKind::kDarcyWeisbach) {  // transitional, 2000 < Re < 4000
+    FrictionFactor f = darcy_friction(e.reynolds, p.relative_roughness, colebrook_x);
+    h = f.f * p.turbulent_coef * q * q;
+    dh = p.turbulent_coef * q * (2.0 * f.f + f.df_dre * e.reynolds);
+    e.regime = f.regime;
+    e.friction_factor = f.f;
   } else {
     const double n = p.hw.exponent;
     const double q0 = p.hw.q0_m3s;

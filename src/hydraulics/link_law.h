@@ -120,4 +120,22 @@ inline LinkEval turbulent_pipe(const PipeLaw& law, double flow_m3s, double reyno
   return e;
 }
 
+// evaluate_pipe's result for a Darcy-Weisbach pipe in laminar flow (Re <= 2000, `reynolds` as
+// needs_colebrook sets it): Hagen-Poiseuille plus the minor loss.
+inline LinkEval laminar_pipe(const PipeLaw& law, double flow_m3s, double reynolds) {
+  LinkEval e;
+  const double q = flow_m3s < 0.0 ? -flow_m3s : flow_m3s;
+  const double sign = flow_m3s < 0.0 ? -1.0 : 1.0;
+  e.reynolds = reynolds;
+  e.regime = q > 0.0 ? FlowRegime::kLaminar : FlowRegime::kNone;
+  e.friction_factor = q > 0.0 ? 64.0 / reynolds : 0.0;
+  double h = law.laminar_coef * q;
+  double dh = law.laminar_coef;
+  h += law.minor_coef * q * q;
+  dh += 2.0 * law.minor_coef * q;
+  e.headloss_m = sign * h;
+  e.dh_dq = dh;
+  return e;
+}
+
 }  // namespace gradeline

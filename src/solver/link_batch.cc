@@ -21,6 +21,8 @@ void LinkBatch::add_item(const PipeLaw& law, double flow_m3s, double* colebrook_
     rr_.push_back(law.relative_roughness);
     x_.push_back(*colebrook_x);
     items_.push_back({&law, flow_m3s, colebrook_x, LinkEval{}});
+  } else if (law.kind == LawKind::kDarcyWeisbach && reynolds <= kLaminarLimitRe) {
+    items_.push_back({&law, flow_m3s, colebrook_x, laminar_pipe(law, flow_m3s, reynolds)});
   } else {
     items_.push_back({&law, flow_m3s, colebrook_x, evaluate_pipe(law, flow_m3s, colebrook_x)});
   }
