@@ -3,6 +3,8 @@
 #include <doctest/doctest.h>
 
 #include <Eigen/Dense>
+#include <string>
+#include <vector>
 
 #include "solver/assembly.h"
 #include "test_support.h"
@@ -51,4 +53,35 @@ TEST_CASE("CHOLMOD and Eigen's LDL^T agree on the assembled system") {
   REQUIRE(e->factorize(plan.matrix));
   REQUIRE(e->solve(rhs, &x2));
   CHECK((x1 - x2).cwiseAbs().maxCoeff() < 1e-10);
+}
+
+TEST_CASE("a dense factor goes supernodal, through the BLAS and LAPACK, and solves like LDL^T") {
+  // A dense 400 x 400 symmetric positive definite matrix (diagonally dominant): about 2n/3 =
+  // 267 flops per nonzero of L, above kSupernodalFlopsPerEntry, so CHOLMOD factorises it in
+  // dense supernodes with dpotrf, dsyrk, dgemm and dtrsm (for a statically linked CHOLMOD,
+  // those are loaded on first use: src/solver/blas_loader.cc).
+  constexpr int kSize = 400;
+  constexpr double kSolveTolerance = 1e-10;
+  std::vector<Eigen::Triplet<double>> upper;
+  for (int j = 0; j < kSize; ++j) {
+    for (int i = 0; i < j; ++i) upper.emplace_back(i, j, 1.0 / (1.0 + (i * 7 + j * 3) % 11));
+    upper.emplace_back(j, j, 2.0 * kSize);
+  }
+  SymmetricMatrix m(kSize, kSize);
+  m.setFromTriplets(upper.begin(), upper.end());
+  const Eigen::VectorXd rhs = Eigen::VectorXd::LinSpaced(kSize, -1.0, 2.0);
+  Eigen::VectorXd x1, x2;
+  auto a = make_sparse_cholesky(CholeskyBackend::kCholmodAuto);
+  REQUIRE(a->analyze(m));
+  CHECK(a->flops_per_entry() > kSupernodalFlopsPerEntry);
+  CHECK(std::string(a->backend()) == "cholmod-supernodal");
+  REQUIRE(a->factorize(m));
+  REQUIRE(a->solve(rhs, &x1));
+  auto e = make_sparse_cholesky(CholeskyBackend::kEigenSimplicial);
+  REQUIRE(e->analyze(m));
+  REQUIRE(e->factorize(m));
+  REQUIRE(e->solve(rhs, &x2));
+  CHECK((x1 - x2).cwiseAbs().maxCoeff() < kSolveTolerance);
+  const Eigen::MatrixXd full = Eigen::MatrixXd(m).selfadjointView<Eigen::Upper>();
+  CHECK((full * x1 - rhs).cwiseAbs().maxCoeff() < kSolveTolerance);
 }
