@@ -8,10 +8,21 @@
 
 namespace gradeline {
 
+namespace {
+
+// The shortest text that reads back to exactly `value`, appended to `t`.
+void put_number(std::string* t, double value) {
+  char buffer[32];
+  const auto [end, error] = std::to_chars(buffer, buffer + sizeof buffer, value);
+  t->append(buffer, static_cast<std::size_t>(end - buffer));
+}
+
+}  // namespace
+
 std::string exact_number(double value) {
-  char buffer[64];
-  auto [end, ec] = std::to_chars(buffer, buffer + sizeof buffer, value);
-  return std::string(buffer, end);
+  std::string text;
+  put_number(&text, value);
+  return text;
 }
 
 namespace {
@@ -37,12 +48,6 @@ constexpr std::size_t kBytesPerLine = 72;
 
 // One element's line, appended to `t`: every value as the shortest text that reads back to it,
 // with its SI unit.
-void put_number(std::string* t, double value) {
-  char buffer[32];
-  const auto [end, error] = std::to_chars(buffer, buffer + sizeof buffer, value);
-  t->append(buffer, static_cast<std::size_t>(end - buffer));
-}
-
 void put(std::string* t, const char* key, double value, const char* unit = "") {
   *t += key;
   put_number(t, value);
