@@ -31,7 +31,10 @@ void* routine(const char* library, const char* name) {
     const char* why = dlerror();
     std::fprintf(stderr, "gradeline: error: cannot load %s from %s: %s\n", name, library,
                  why != nullptr ? why : "not found");
-    std::exit(kExitMissingLibrary);
+    // Possibly on a worker thread inside a factorisation: end at once, without running the
+    // destructors of objects other threads may still be using.
+    std::fflush(stderr);
+    std::_Exit(kExitMissingLibrary);
   }
   return found;
 }
