@@ -1,5 +1,7 @@
 #include "solver/sparse_cholesky.h"
 
+#include "solver/cholmod_ldlt.h"
+
 #include <Eigen/CholmodSupport>
 #include <Eigen/SparseCholesky>
 #include <string_view>
@@ -72,6 +74,11 @@ std::unique_ptr<SparseCholesky> make_sparse_cholesky(CholeskyBackend backend, Or
           Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::AMDOrdering<int>>>>(
           "eigen-simplicial-ldlt");
     case CholeskyBackend::kCholmodAuto: {
+      // A matrix already in pivot order: CHOLMOD called directly, refactorisations shared
+      // between two cores by subtrees (src/solver/cholmod_ldlt.h).
+      if (ordering == Ordering::kNatural) {
+        return std::make_unique<CholmodNaturalLdlt>(kSupernodalFlopsPerEntry);
+      }
       // Supernodal or simplicial as CHOLMOD's analysis decides, by the flops per nonzero of L.
       auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodDecomposition<SymmetricMatrix, Eigen::Upper>>>(
           "cholmod-auto");
