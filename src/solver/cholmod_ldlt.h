@@ -1,15 +1,15 @@
 // CHOLMOD's factorisation of a matrix already numbered in a fill-reducing order (natural
-// ordering), called directly rather than through Eigen, so that a simplicial LDL^T
-// refactorisation can be shared between two cores by subtrees of the elimination tree
-// (src/solver/subtree_split.h): each core calls CHOLMOD's own up-looking kernel,
-// cholmod_rowfac, on its rows, with a workspace of its own, then one core factorises the few
-// rows above both. Every row is computed by the same arithmetic, in the same order, as in one
-// serial cholmod_factorize, so the factor is the same to the bit.
+// ordering), through Eigen's CholmodSupport, with one addition: a simplicial LDL^T
+// refactorisation is shared between two cores by subtrees of the elimination tree
+// (src/solver/subtree_split.h). Each core calls CHOLMOD's own up-looking kernel,
+// cholmod_rowfac, on its rows of the wrapper's factor, with a workspace of its own; then one
+// core factorises the few rows above both. Every row is computed by the same arithmetic, in
+// the same order, as in one serial cholmod_factorize, so the factor is the same to the bit.
 //
 // The first factorisation after an analysis (whose pattern gives the elimination tree),
 // supernodal factors (dense matrices, through the BLAS) and small matrices (kSplitFromUnknowns,
-// kSplitFromWork) go through cholmod_factorize as before. A factorisation that meets a zero
-// pivot is redone serially, so that a failure is reported as CHOLMOD reports it.
+// kSplitFromWork) go through the wrapper's factorize as before. A factorisation that meets a
+// zero pivot is redone serially, so that a failure is reported as CHOLMOD reports it.
 #pragma once
 
 #include <memory>
