@@ -1,6 +1,7 @@
 #include "solver/cholmod_ldlt.h"
 
 #include <Eigen/CholmodSupport>
+#include <algorithm>
 #include <vector>
 
 #include "solver/subtree_split.h"
@@ -59,13 +60,80 @@ class SharedCholmod : public Eigen::CholmodDecomposition<SymmetricMatrix, Eigen:
   }
 };
 
+// The solves L D L^T x = b with a simplicial LDL^T factor in CHOLMOD's layout (column j: D(j,j)
+// first, then L(i,j) for its rows i > j), shared between two cores by `split` (`in_top` marks
+// the top's rows). Forward, L D y = b column by column: a core's column j updates only the
+// rows of j's ancestors, in its own share or in the top; its updates of top rows are summed
+// in `acc` (one array per core, zero outside the solve) and applied after both, then the top's
+// columns follow. Backward, L^T x = y from the last row down: the top first, then both shares
+// side by side, each reading only its own rows and the top's. The result does not depend on
+// how the cores' work interleaves.
+void solve_shared(const cholmod_factor& f, const SubtreeSplit& split,
+                  const std::vector<char>& in_top, std::vector<double> (&acc)[2], double* x) {
+  const int* lp = static_cast<const int*>(f.p);
+  const int* li = static_cast<const int*>(f.i);
+  const int* lnz = static_cast<const int*>(f.nz);
+  const double* lx = static_cast<const double*>(f.x);
+  auto forward = [&](int j, double* top_sums) {
+    const int begin = lp[j], end = begin + lnz[j];
+    const double y = x[j];
+    x[j] = y / lx[begin];
+    for (int p = begin + 1; p < end; ++p) {
+      const int i = li[p];
+      if (top_sums != nullptr && in_top[i]) {
+        top_sums[i] += lx[p] * y;
+      } else {
+        x[i] -= lx[p] * y;
+      }
+    }
+  };
+  auto backward = [&](int j) {
+    const int begin = lp[j], end = begin + lnz[j];
+    double y = x[j];
+    for (int p = begin + 1; p < end; ++p) y -= lx[p] * x[li[p]];
+    x[j] = y;
+  };
+#pragma omp parallel sections num_threads(2)
+  {
+#pragma omp section
+    for (int j = 0; j < split.prefix_end; ++j) forward(j, acc[0].data());
+#pragma omp section
+    for (const SubtreeSplit::Run& run : split.second) {
+      for (int j = run.first; j < run.second; ++j) forward(j, acc[1].data());
+    }
+  }
+  for (const SubtreeSplit::Run& run : split.top) {
+    for (int i = run.first; i < run.second; ++i) {
+      x[i] -= acc[0][i] + acc[1][i];
+      acc[0][i] = acc[1][i] = 0.0;
+    }
+  }
+  for (const SubtreeSplit::Run& run : split.top) {
+    for (int j = run.first; j < run.second; ++j) forward(j, nullptr);
+  }
+  for (auto run = split.top.rbegin(); run != split.top.rend(); ++run) {
+    for (int j = run->second - 1; j >= run->first; --j) backward(j);
+  }
+#pragma omp parallel sections num_threads(2)
+  {
+#pragma omp section
+    for (int j = split.prefix_end - 1; j >= 0; --j) backward(j);
+#pragma omp section
+    for (auto run = split.second.rbegin(); run != split.second.rend(); ++run) {
+      for (int j = run->second - 1; j >= run->first; --j) backward(j);
+    }
+  }
+}
+
 }  // namespace
 
 struct CholmodNaturalLdlt::Impl {
   SharedCholmod solver;
   cholmod_common second;  // the workspace of the second core
   SubtreeSplit split;
-  bool planned = false;  // split is planned (after the first successful factorisation)
+  std::vector<char> in_top;    // per row: in split.top
+  std::vector<double> acc[2];  // per core: its sums into the top's rows in a solve
+  bool planned = false;        // split is planned (after the first successful factorisation)
   double flops_per_entry = 0.0;
 
   explicit Impl(double supernodal_flops_per_entry) {
@@ -103,6 +171,12 @@ struct CholmodNaturalLdlt::Impl {
       total += work[j];
     }
     if (n >= kSplitFromUnknowns && total >= kSplitFromWork) split = split_subtrees(parent, work);
+    if (split.prefix_end == 0) return;
+    in_top.assign(parent.size(), 0);
+    for (const SubtreeSplit::Run& run : split.top) {
+      std::fill(in_top.begin() + run.first, in_top.begin() + run.second, 1);
+    }
+    for (std::vector<double>& a : acc) a.assign(parent.size(), 0.0);
   }
 };
 
@@ -137,6 +211,19 @@ bool CholmodNaturalLdlt::factorize(const SymmetricMatrix& matrix) {
 }
 
 bool CholmodNaturalLdlt::solve(const Eigen::VectorXd& rhs, Eigen::VectorXd* x) {
+  Impl& m = *impl_;
+  const cholmod_factor* f = m.solver.factor();
+  if (m.split.prefix_end > 0 && f != nullptr && !f->is_super && !f->is_ll &&
+      f->xtype == CHOLMOD_REAL && f->minor == f->n && m.solver.info() == Eigen::Success &&
+      static_cast<std::size_t>(rhs.size()) == f->n) {
+    *x = rhs;
+    solve_shared(*f, m.split, m.in_top, m.acc, x->data());
+    return true;
+  }
+  return solve_with_cholmod(rhs, x);
+}
+
+bool CholmodNaturalLdlt::solve_with_cholmod(const Eigen::VectorXd& rhs, Eigen::VectorXd* x) {
   *x = impl_->solver.solve(rhs);
   return impl_->solver.info() == Eigen::Success;
 }
