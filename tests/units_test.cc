@@ -1,9 +1,14 @@
 // Unit conversions at the input boundary. Exact factors are those of NIST Special Publication
 // 811 (2008), appendix B: 1 ft = 0.3048 m and 1 in = 0.0254 m exactly (the 1959 international
 // yard), 1 US gallon = 231 in^3 = 3.785411784 L exactly, 1 psi = 6894.757 Pa (lbf/in^2).
+#include "model/units.h"
+
 #include <doctest/doctest.h>
 
-#include "model/units.h"
+#include <cstdlib>
+#include <cstring>
+#include <random>
+#include <string>
 
 using namespace gradeline;
 
@@ -41,8 +46,7 @@ TEST_CASE("every required flow unit converts (US gallon = 3.785411784 L exactly)
   CHECK(si("1m3/s", Dimension::kFlow) == doctest::Approx(1.0).epsilon(kExact));
   CHECK(si("120m3/h", Dimension::kFlow) == doctest::Approx(120.0 / 3600.0).epsilon(kExact));
   CHECK(si("86.4ML/d", Dimension::kFlow) == doctest::Approx(1.0).epsilon(kExact));
-  CHECK(si("35gpm", Dimension::kFlow) ==
-        doctest::Approx(35 * 3.785411784e-3 / 60).epsilon(kExact));
+  CHECK(si("35gpm", Dimension::kFlow) == doctest::Approx(35 * 3.785411784e-3 / 60).epsilon(kExact));
   CHECK(si("2MGD", Dimension::kFlow) ==
         doctest::Approx(2e6 * 3.785411784e-3 / 86400).epsilon(kExact));
   CHECK(si("1cfs", Dimension::kFlow) == doctest::Approx(0.028316846592).epsilon(kExact));
@@ -86,7 +90,8 @@ TEST_CASE("non-finite and malformed numbers are refused") {
   }
   CHECK(parse_quantity("1e999", Dimension::kLength, UnitSystem::kSI).error ==
         "'1e999' is not a finite number");
-  CHECK(parse_quantity("abc", Dimension::kLength, UnitSystem::kSI).error == "'abc' is not a number");
+  CHECK(parse_quantity("abc", Dimension::kLength, UnitSystem::kSI).error ==
+        "'abc' is not a number");
 }
 
 TEST_CASE("an exponent needs digits, so 5e is a number with an unknown unit") {
@@ -94,4 +99,38 @@ TEST_CASE("an exponent needs digits, so 5e is a number with an unknown unit") {
   CHECK_FALSE(p.ok);
   CHECK(si("1e3m", Dimension::kLength) == 1000.0);
   CHECK(si("1.0e-6m2/s", Dimension::kViscosity) == doctest::Approx(1e-6).epsilon(kExact));
+}
+
+TEST_CASE("decimals read to the double nearest them, as glibc's strtod reads them") {
+  // strtod (glibc) rounds correctly; the reader's quick path (m / 10^k, both exact) must give
+  // the same double, bit for bit, and so must its fall-back for longer numbers and exponents.
+  std::mt19937_64 rng(42);
+  int checked = 0;
+  for (int trial = 0; trial < 200000; ++trial) {
+    std::string text = rng() % 4 == 0 ? "-" : "";
+    const int digits = 1 + static_cast<int>(rng() % 18);
+    const int point = static_cast<int>(rng() % (digits + 2)) - 1;  // -1: none; digits: at the end
+    for (int i = 0; i < digits; ++i) {
+      if (i == point) text += i == 0 ? "0." : ".";
+      text += static_cast<char>('0' + rng() % 10);
+    }
+    if (point == digits) text += ".";
+    if (trial % 7 == 0) text += "e" + std::to_string(static_cast<int>(rng() % 40) - 20);
+    double ours = 0.0;
+    REQUIRE_MESSAGE(parse_number(text, &ours), text);
+    const double reference = std::strtod(text.c_str(), nullptr);
+    CAPTURE(text);
+    REQUIRE(std::memcmp(&ours, &reference, sizeof ours) == 0);
+    ++checked;
+  }
+  CHECK(checked == 200000);
+  // Values at the quick path's limits: 2^53 - 1 and 2^53 digits, 22 places, negative zero.
+  for (const char* text : {"9007199254740991", "9007199254740993", "0.0000000000000000000001",
+                           "1.2345678901234567", "-0", "-0.0", "5.", "0.1", "0.3", "100.0000"}) {
+    double ours = 0.0;
+    REQUIRE(parse_number(text, &ours));
+    const double reference = std::strtod(text, nullptr);
+    CAPTURE(text);
+    CHECK(std::memcmp(&ours, &reference, sizeof ours) == 0);
+  }
 }

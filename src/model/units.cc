@@ -3,6 +3,7 @@
 #include <cctype>
 #include <charconv>
 #include <cmath>
+#include <cstdint>
 
 namespace gradeline {
 namespace {
@@ -16,7 +17,7 @@ constexpr double kPound_kg = 0.45359237;
 struct UnitEntry {
   const char* name;  // lower case
   Dimension dimension;
-  double factor;     // SI = value * factor + offset
+  double factor;  // SI = value * factor + offset
   double offset;
   bool is_head;
 };
@@ -44,8 +45,8 @@ constexpr UnitEntry kUnits[] = {
     {"mld", Dimension::kFlow, 1e3 / 86400.0, 0.0, false},
     {"gpm", Dimension::kFlow, kUsGallon_m3 / 60.0, 0.0, false},
     {"mgd", Dimension::kFlow, 1e6 * kUsGallon_m3 / 86400.0, 0.0, false},
-    {"cfs", Dimension::kFlow, kFoot_m * kFoot_m * kFoot_m, 0.0, false},
-    {"ft3/s", Dimension::kFlow, kFoot_m * kFoot_m * kFoot_m, 0.0, false},
+    {"cfs", Dimension::kFlow, kFoot_m* kFoot_m* kFoot_m, 0.0, false},
+    {"ft3/s", Dimension::kFlow, kFoot_m* kFoot_m* kFoot_m, 0.0, false},
     // Pressures.
     {"pa", Dimension::kPressure, 1.0, 0.0, false},
     {"kpa", Dimension::kPressure, 1e3, 0.0, false},
@@ -62,7 +63,7 @@ constexpr UnitEntry kUnits[] = {
     {"m2/s", Dimension::kViscosity, 1.0, 0.0, false},
     {"mm2/s", Dimension::kViscosity, 1e-6, 0.0, false},
     {"cst", Dimension::kViscosity, 1e-6, 0.0, false},
-    {"ft2/s", Dimension::kViscosity, kFoot_m * kFoot_m, 0.0, false},
+    {"ft2/s", Dimension::kViscosity, kFoot_m* kFoot_m, 0.0, false},
     // Densities.
     {"kg/m3", Dimension::kDensity, 1.0, 0.0, false},
     {"g/cm3", Dimension::kDensity, 1000.0, 0.0, false},
@@ -87,16 +88,25 @@ Dimension unit_family(Dimension d) {
 const char* default_unit(Dimension d, UnitSystem s) {
   const bool si = s == UnitSystem::kSI;
   switch (d) {
-    case Dimension::kLength: return si ? "m" : "ft";
+    case Dimension::kLength:
+      return si ? "m" : "ft";
     case Dimension::kDiameter:
-    case Dimension::kRoughness: return si ? "mm" : "in";
-    case Dimension::kFlow: return si ? "l/s" : "gpm";
-    case Dimension::kPressure: return si ? "kpa" : "psi";
-    case Dimension::kTemperature: return si ? "c" : "f";
-    case Dimension::kViscosity: return si ? "m2/s" : "ft2/s";
-    case Dimension::kDensity: return si ? "kg/m3" : "lb/ft3";
-    case Dimension::kVelocity: return si ? "m/s" : "ft/s";
-    case Dimension::kDimensionless: return "";
+    case Dimension::kRoughness:
+      return si ? "mm" : "in";
+    case Dimension::kFlow:
+      return si ? "l/s" : "gpm";
+    case Dimension::kPressure:
+      return si ? "kpa" : "psi";
+    case Dimension::kTemperature:
+      return si ? "c" : "f";
+    case Dimension::kViscosity:
+      return si ? "m2/s" : "ft2/s";
+    case Dimension::kDensity:
+      return si ? "kg/m3" : "lb/ft3";
+    case Dimension::kVelocity:
+      return si ? "m/s" : "ft/s";
+    case Dimension::kDimensionless:
+      return "";
   }
   return "";
 }
@@ -119,30 +129,67 @@ const UnitEntry* find_unit(std::string_view name) {
   return nullptr;
 }
 
+bool is_digit(char c) { return static_cast<unsigned char>(c) - unsigned{'0'} < 10; }
+
 // Length of the leading decimal number: [+-]digits[.digits][(e|E)[+-]digits].
 std::size_t scan_number(std::string_view s) {
   std::size_t i = 0;
   if (i < s.size() && (s[i] == '+' || s[i] == '-')) ++i;
   std::size_t digits = 0;
-  while (i < s.size() && std::isdigit(static_cast<unsigned char>(s[i]))) ++i, ++digits;
+  while (i < s.size() && is_digit(s[i])) ++i, ++digits;
   if (i < s.size() && s[i] == '.') {
     ++i;
-    while (i < s.size() && std::isdigit(static_cast<unsigned char>(s[i]))) ++i, ++digits;
+    while (i < s.size() && is_digit(s[i])) ++i, ++digits;
   }
   if (digits == 0) return 0;
   if (i < s.size() && (s[i] == 'e' || s[i] == 'E')) {
     std::size_t j = i + 1;
     if (j < s.size() && (s[j] == '+' || s[j] == '-')) ++j;
     std::size_t exp_digits = 0;
-    while (j < s.size() && std::isdigit(static_cast<unsigned char>(s[j]))) ++j, ++exp_digits;
+    while (j < s.size() && is_digit(s[j])) ++j, ++exp_digits;
     if (exp_digits > 0) i = j;
   }
   return i;
 }
 
+// A decimal with no exponent, [-]digits[.digits], whose digits make an integer m below 2^53
+// and with at most 22 after the point, is m / 10^k with both exactly representable: one IEEE
+// division, correctly rounded, gives the double nearest the decimal, which is what
+// std::from_chars gives (Clinger 1990, "How to read floating point numbers accurately",
+// PLDI). Most values in network files are such; anything else goes to from_chars.
+bool convert_short_decimal(std::string_view d, double* value) {
+  static constexpr double kPowers[] = {1e0,  1e1,  1e2,  1e3,  1e4,  1e5,  1e6,  1e7,
+                                       1e8,  1e9,  1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
+                                       1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22};
+  constexpr std::uint64_t kExact = std::uint64_t{1} << 53;
+  std::size_t i = 0;
+  const bool negative = !d.empty() && d[0] == '-';
+  i += negative;
+  std::uint64_t m = 0;
+  std::size_t digits = 0, after_point = 0;
+  bool point = false;
+  for (; i < d.size(); ++i) {
+    const unsigned digit = static_cast<unsigned char>(d[i]) - unsigned{'0'};
+    if (digit < 10) {
+      if (++digits > 16) return false;  // m might pass 2^53
+      m = m * 10 + digit;
+      after_point += point;
+    } else if (d[i] == '.' && !point) {
+      point = true;
+    } else {
+      return false;  // an exponent
+    }
+  }
+  if (digits == 0 || m >= kExact || after_point > 22) return false;
+  const double magnitude = static_cast<double>(m) / kPowers[after_point];
+  *value = negative ? -magnitude : magnitude;
+  return true;
+}
+
 bool convert(std::string_view digits, double* value) {
   std::string_view d = digits;
   if (!d.empty() && d[0] == '+') d.remove_prefix(1);
+  if (convert_short_decimal(d, value)) return true;
   auto [ptr, ec] = std::from_chars(d.data(), d.data() + d.size(), *value);
   return ec == std::errc() && ptr == d.data() + d.size() && std::isfinite(*value);
 }
@@ -160,16 +207,26 @@ std::string join_names(Dimension d) {
 
 const char* dimension_name(Dimension d) {
   switch (d) {
-    case Dimension::kLength: return "a length";
-    case Dimension::kDiameter: return "a diameter";
-    case Dimension::kRoughness: return "a roughness";
-    case Dimension::kFlow: return "a flow";
-    case Dimension::kPressure: return "a pressure";
-    case Dimension::kTemperature: return "a temperature";
-    case Dimension::kViscosity: return "a kinematic viscosity";
-    case Dimension::kDensity: return "a density";
-    case Dimension::kVelocity: return "a velocity";
-    case Dimension::kDimensionless: return "a plain number";
+    case Dimension::kLength:
+      return "a length";
+    case Dimension::kDiameter:
+      return "a diameter";
+    case Dimension::kRoughness:
+      return "a roughness";
+    case Dimension::kFlow:
+      return "a flow";
+    case Dimension::kPressure:
+      return "a pressure";
+    case Dimension::kTemperature:
+      return "a temperature";
+    case Dimension::kViscosity:
+      return "a kinematic viscosity";
+    case Dimension::kDensity:
+      return "a density";
+    case Dimension::kVelocity:
+      return "a velocity";
+    case Dimension::kDimensionless:
+      return "a plain number";
   }
   return "a value";
 }
@@ -183,9 +240,9 @@ std::vector<std::string> unit_names(Dimension d) {
   std::vector<std::string> out;
   const Dimension family = unit_family(d);
   for (const UnitEntry& u : kUnits) {
-    if (u.dimension == family || (d == Dimension::kPressure && u.dimension == Dimension::kLength &&
-                                  (std::string_view(u.name) == "m" ||
-                                   std::string_view(u.name) == "ft"))) {
+    if (u.dimension == family ||
+        (d == Dimension::kPressure && u.dimension == Dimension::kLength &&
+         (std::string_view(u.name) == "m" || std::string_view(u.name) == "ft"))) {
       out.emplace_back(u.name);
     }
   }
