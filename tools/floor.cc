@@ -6,7 +6,9 @@
 // Prints one line: "floor analyse_s=... factor_s=... solve_s=... unknowns=... nnz=... core_...",
 // with the factor and solve times the median of REPEATS runs (default 7): the faster of the
 // matrix in file order under AMD and the matrix renumbered by the postordered AMD order under
-// the natural ordering (the file-order times are also printed, as file_order_*).
+// the natural ordering (the file-order times are also printed, as file_order_*), through
+// CHOLMOD's own calls on one core; two_core_* are the renumbered matrix's factor and solve
+// shared between two cores as gradeline shares them (src/solver/cholmod_ldlt.h).
 #include <algorithm>
 #include <chrono>
 #include <cstdio>
@@ -69,9 +71,12 @@ int main(int argc, char** argv) {
   Eigen::VectorXd rhs = Eigen::VectorXd::Ones(plan.unknowns), x;
 
   const char* env = std::getenv("GRADELINE_BACKEND");
+  // CHOLMOD's own calls, one core (the floor as the ratio takes it); the two-core figures are
+  // gradeline's shared refactorisation and solves (src/solver/cholmod_ldlt.h) on the same
+  // matrix.
   const CholeskyBackend backend = env && std::string(env) == "simplicial"
                                       ? CholeskyBackend::kCholmodSimplicial
-                                      : CholeskyBackend::kCholmodAuto;
+                                      : CholeskyBackend::kCholmodAutoOneCore;
   std::vector<double> analyse;
   for (int i = 0; i < 3; ++i) {
     auto chol = make_sparse_cholesky(backend, Ordering::kAmd);
@@ -82,8 +87,8 @@ int main(int argc, char** argv) {
   // Factor and solve times, median of `repeats`, for one matrix and ordering.
   double flops_per_entry = 0;
   auto time_factor = [&](const AssemblyPlan& p, Ordering ordering, double* factor_s, double* solve_s,
-                         const char** name) {
-    auto chol = make_sparse_cholesky(backend, ordering);
+                         const char** name, CholeskyBackend which) {
+    auto chol = make_sparse_cholesky(which, ordering);
     if (!chol->analyze(p.matrix)) return false;
     std::vector<double> factor, solve_times;
     for (int i = 0; i < repeats; ++i) {
@@ -102,16 +107,20 @@ int main(int argc, char** argv) {
   };
   double factor_s = 0, solve_s = 0, factor_file_s = 0, solve_file_s = 0;
   const char* name = "";
-  if (!time_factor(plan, Ordering::kNatural, &factor_s, &solve_s, &name) ||
-      !time_factor(file_order, Ordering::kAmd, &factor_file_s, &solve_file_s, &name)) {
+  double factor_2core_s = 0, solve_2core_s = 0;
+  const char* name_2core = "";
+  if (!time_factor(plan, Ordering::kNatural, &factor_2core_s, &solve_2core_s, &name_2core,
+                   CholeskyBackend::kCholmodAuto) ||
+      !time_factor(plan, Ordering::kNatural, &factor_s, &solve_s, &name, backend) ||
+      !time_factor(file_order, Ordering::kAmd, &factor_file_s, &solve_file_s, &name, backend)) {
     return 3;
   }
   std::printf("floor analyse_s=%.6f factor_s=%.6f solve_s=%.6f unknowns=%d nnz=%lld backend=%s "
               "file_order_factor_s=%.6f file_order_solve_s=%.6f renumbered_factor_s=%.6f "
-              "flops_per_entry=%.1f\n",
+              "flops_per_entry=%.1f two_core_factor_s=%.6f two_core_solve_s=%.6f\n",
               median(analyse), std::min(factor_s, factor_file_s), std::min(solve_s, solve_file_s),
               plan.unknowns, static_cast<long long>(plan.matrix.nonZeros()), name, factor_file_s,
-              solve_file_s, factor_s, flops_per_entry);
+              solve_file_s, factor_s, flops_per_entry, factor_2core_s, solve_2core_s);
   // The reduced system: the core network with one link per series chain, at the same flows.
   const Topology topology = build_topology(net);
   const Reduction reduction = reduce_topology(net, topology, eliminable_links(net));
@@ -149,7 +158,7 @@ int main(int argc, char** argv) {
   rhs = Eigen::VectorXd::Ones(core_plan.unknowns);
   double core_factor_s = 0, core_solve_s = 0;
   if (core_plan.unknowns > 0 &&
-      !time_factor(core_plan, Ordering::kNatural, &core_factor_s, &core_solve_s, &name)) {
+      !time_factor(core_plan, Ordering::kNatural, &core_factor_s, &core_solve_s, &name, backend)) {
     return 3;
   }
   std::printf("core core_analyse_s=%.6f core_factor_s=%.6f core_solve_s=%.6f core_unknowns=%d\n",

@@ -73,12 +73,14 @@ std::unique_ptr<SparseCholesky> make_sparse_cholesky(CholeskyBackend backend, Or
       return std::make_unique<EigenBackedCholesky<
           Eigen::SimplicialLDLT<SymmetricMatrix, Eigen::Upper, Eigen::AMDOrdering<int>>>>(
           "eigen-simplicial-ldlt");
-    case CholeskyBackend::kCholmodAuto: {
-      // A matrix already in pivot order: CHOLMOD called directly, refactorisations shared
-      // between two cores by subtrees (src/solver/cholmod_ldlt.h).
+    case CholeskyBackend::kCholmodAuto:
+      // A matrix already in pivot order: refactorisations shared between two cores by subtrees
+      // (src/solver/cholmod_ldlt.h).
       if (ordering == Ordering::kNatural) {
         return std::make_unique<CholmodNaturalLdlt>(kSupernodalFlopsPerEntry);
       }
+      [[fallthrough]];
+    case CholeskyBackend::kCholmodAutoOneCore: {
       // Supernodal or simplicial as CHOLMOD's analysis decides, by the flops per nonzero of L.
       auto b = std::make_unique<EigenBackedCholesky<Eigen::CholmodDecomposition<SymmetricMatrix, Eigen::Upper>>>(
           "cholmod-auto");

@@ -31,7 +31,11 @@ class SparseCholesky {
 enum class CholeskyBackend {
   kCholmodSimplicial,  // CHOLMOD LDL^T (SuiteSparse)
   kCholmodAuto,        // CHOLMOD, supernodal when the analysis finds at least
-                       // kSupernodalFlopsPerEntry flops per nonzero of L, else simplicial LDL^T
+                       // kSupernodalFlopsPerEntry flops per nonzero of L, else simplicial LDL^T;
+                       // with the natural ordering, large simplicial refactorisations and their
+                       // solves shared between two cores (src/solver/cholmod_ldlt.h)
+  kCholmodAutoOneCore, // the same through CHOLMOD's own calls only, on one core (the floor's
+                       // reference, tools/floor.cc)
   kEigenSimplicial,    // Eigen's own LDL^T with AMD ordering, for cross-checks
 };
 
