@@ -153,6 +153,27 @@ TEST_CASE("a large file is read in bulk by default, and gives the same network")
   CHECK(fingerprint(bulk.network) == fingerprint(lines.network));
 }
 
+TEST_CASE("a duplicate link ID in a large file is reported as when read line by line") {
+  // Enough links for the link lookup to be filled by parts on every core (IdIndex::insert_all).
+  constexpr int kLinks = 70000;
+  std::string text = "units SI\nreservoir R head=80\n";
+  for (int i = 0; i < kLinks; ++i) text += "node N" + std::to_string(i) + " elevation=1\n";
+  for (int i = 0; i < kLinks; ++i) {
+    const int id = i == 61234 ? 4321 : i;  // the second P4321
+    text += "pipe P" + std::to_string(id) + " " +
+            (i == 0 ? std::string("R") : "N" + std::to_string(i - 1)) + " N" + std::to_string(i) +
+            " length=10 diameter=150 roughness=0.1\n";
+  }
+  const std::string path = testing::temp_dir() + "/bulk_duplicate.gln";
+  std::ofstream(path) << text;
+  ParseResult bulk = parse_network_file(path);
+  ParseResult lines = parse_network_text(text, path, kNeverBulk);
+  CHECK_FALSE(bulk.ok());
+  REQUIRE(lines.errors.size() == 1);
+  CHECK(errors_text(bulk) == errors_text(lines));
+  CHECK(lines.errors[0].format().find("P4321") != std::string::npos);
+}
+
 TEST_CASE("every shipped, test and pathological network reads the same in bulk") {
   int files = 0;
   for (const char* dir : {"networks", "tests/networks", "tests/pathological"}) {

@@ -65,3 +65,64 @@ TEST_CASE("lookups still hold after the table grows many times") {
   }
   CHECK_FALSE(t.find("J20001"));
 }
+
+namespace {
+
+// IDs of several shapes: short ones kept in the slots, long ones kept in the elements.
+std::vector<std::string> many_ids(int count) {
+  std::vector<std::string> ids;
+  for (int i = 0; i < count; ++i) {
+    ids.push_back(i % 3 == 0 ? "main-street-link-" + std::to_string(i) : "L" + std::to_string(i));
+  }
+  return ids;
+}
+
+bool fill_at_once(const std::vector<std::string>& ids, IdIndex* index) {
+  std::vector<IdIndex::Staged> staged;
+  for (std::size_t i = 0; i < ids.size(); ++i) staged.push_back(IdIndex::stage(ids[i], i));
+  return index->insert_all(staged, [&](std::size_t i) -> std::string_view { return ids[i]; });
+}
+
+}  // namespace
+
+TEST_CASE("a table filled at once by parts finds every ID, and only those, as one filled in turn") {
+  // 98,000 IDs in 131,072 slots (three quarters full, the most before the table grows), so
+  // that many probes run into the next part and are placed after the parts.
+  for (int count : {200000, 98000, 1000}) {
+    CAPTURE(count);
+    const std::vector<std::string> ids = many_ids(count);
+    IdIndex at_once;
+    REQUIRE(fill_at_once(ids, &at_once));
+    auto id_of = [&](std::size_t i) -> std::string_view { return ids[i]; };
+    for (std::size_t i = 0; i < ids.size(); ++i) {
+      const auto found = at_once.find(ids[i], id_of);
+      REQUIRE(found);
+      REQUIRE(*found == i);
+    }
+    for (const char* missing : {"L-1", "main-street-link-1", "", "L200000x"}) {
+      CHECK_FALSE(at_once.find(missing, id_of));
+    }
+    // Growing after it keeps every ID.
+    std::vector<std::string> more = ids;
+    for (int i = 0; i < count; ++i) {
+      more.push_back("extra-" + std::to_string(i));
+      auto [at, inserted] = at_once.insert(
+          more.back(), more.size() - 1, [&](std::size_t k) -> std::string_view { return more[k]; });
+      REQUIRE(inserted);
+    }
+    CHECK(*at_once.find(ids[count / 2], id_of) == static_cast<std::size_t>(count / 2));
+  }
+}
+
+TEST_CASE("a table filled at once refuses a duplicate ID, short or long, wherever it lies") {
+  for (const std::string& dup : {std::string("L17"), std::string("main-street-link-99")}) {
+    for (std::size_t where : {std::size_t{1}, std::size_t{150000}, std::size_t{199999}}) {
+      CAPTURE(dup);
+      CAPTURE(where);
+      std::vector<std::string> ids = many_ids(200000);  // ids[17] is "L17", ids[99] the long one
+      ids[where] = dup;
+      IdIndex index;
+      CHECK_FALSE(fill_at_once(ids, &index));
+    }
+  }
+}

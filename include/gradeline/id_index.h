@@ -10,6 +10,7 @@
 
 #include <cstdint>
 #include <cstring>
+#include <functional>
 #include <optional>
 #include <string_view>
 #include <vector>
@@ -60,6 +61,31 @@ class IdIndex {
     ++count_;
     return {index, true};
   }
+
+  // The slot an ID will take, made on any thread (a hash and a copy of a short ID), for
+  // insert_all.
+  struct Staged {
+    std::uint32_t tag;
+    std::uint32_t index;
+    std::uint8_t length;
+    char chars[7];
+  };
+  static Staged stage(std::string_view id, std::size_t index) {
+    Staged s{tag_of(id), static_cast<std::uint32_t>(index), kLongId, {}};
+    if (id.size() <= kInlineId) {
+      s.length = static_cast<std::uint8_t>(id.size());
+      std::memcpy(s.chars, id.data(), id.size());
+    }
+    return s;
+  }
+  // Adds every staged element to an empty table on every core, or returns false at a
+  // duplicate ID (the table is then to be cleared); `id_of` as for insert, called only to
+  // compare IDs too long to be kept in a slot. The IDs are dealt by home slot into parts of
+  // the table small enough for a core's cache, each part filled in index order by one core;
+  // an element whose probe would leave its part is placed after, in index order. Lookups
+  // then find every element as if it had been inserted one by one. (src/model/id_index.cc)
+  bool insert_all(const std::vector<Staged>& staged,
+                  const std::function<std::string_view(std::size_t)>& id_of);
 
   // A hint that `id` will be looked up soon: starts loading its first slot into the cache.
   void prefetch(std::string_view id) const {

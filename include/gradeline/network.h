@@ -223,6 +223,10 @@ struct Network {
   // false).
   bool try_index_node(std::size_t k);
   bool try_index_pipe(std::size_t k);
+  // Every link, already in place and none yet in the ID lookup, added at once, as staged
+  // (IdIndex::stage(pipes[k].id, k) for each k, made on any core); false at a duplicate ID,
+  // and the lookup is then left empty.
+  bool index_all_pipes(const std::vector<IdIndex::Staged>& staged);
   void reserve(std::size_t nodes, std::size_t pipes);
 
  private:

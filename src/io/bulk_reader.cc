@@ -165,6 +165,9 @@ bool settle_in_bulk(const std::vector<PipeEnds>& ends, const PipeDefaults& defau
   // reading). The lookups only read the node index, so the chunks run side by side.
   constexpr std::size_t kAhead = 16;
   std::atomic<bool> failed{false};
+  // Each link's slot in the link lookup is made beside its settling, while its record is in
+  // the cache; the lookup is then filled by parts on every core (IdIndex::insert_all).
+  std::vector<IdIndex::Staged> staged(count);
 #pragma omp parallel for schedule(static)
   for (std::ptrdiff_t c = 0; c < static_cast<std::ptrdiff_t>(kChunks); ++c) {
     Diagnostics diagnostics;
@@ -185,14 +188,11 @@ bool settle_in_bulk(const std::vector<PipeEnds>& ends, const PipeDefaults& defau
         failed.store(true, std::memory_order_relaxed);
         break;
       }
+      staged[k] = IdIndex::stage(pipes[k].id, k);
     }
   }
   if (failed.load()) return false;
-  for (std::size_t k = 0; k < count; ++k) {
-    if (k + kAhead < count) net->prefetch_pipe(pipes[k + kAhead].id);
-    if (!net->try_index_pipe(k)) return false;
-  }
-  return true;
+  return net->index_all_pipes(staged);
 }
 
 }  // namespace gradeline

@@ -139,6 +139,15 @@ bool Network::try_index_node(std::size_t k) {
       .second;
 }
 
+bool Network::index_all_pipes(const std::vector<IdIndex::Staged>& staged) {
+  if (pipe_index_.insert_all(staged,
+                             [this](std::size_t i) -> std::string_view { return pipes[i].id; })) {
+    return true;
+  }
+  pipe_index_.clear();
+  return false;
+}
+
 bool Network::try_index_pipe(std::size_t k) {
   return pipe_index_
       .insert(pipes[k].id, k, [this](std::size_t i) -> std::string_view { return pipes[i].id; })
