@@ -79,7 +79,7 @@ TEST_CASE("the shared factorisation is CHOLMOD's serial one to the bit, refactor
 }
 
 TEST_CASE("a zero pivot found by a shared refactorisation fails as the serial one does") {
-  const Topology t = tree_with_loops(20000, 9);
+  const Topology t = tree_with_loops(30000, 9);
   AssemblyPlan plan = plan_assembly(t, junction_order(t));
   const std::vector<char> unsupplied(t.fixed_head.size(), 0);
   CholmodNaturalLdlt shared(kSupernodalFlopsPerEntry);

@@ -26,9 +26,11 @@ namespace gradeline {
 // much estimated work (the sum over the rows of 2 + the square of the row's column count in
 // L): the core of the 10^5-pipe "distribution" benchmark has 24,527 unknowns and about 280,000
 // units, and its serial factorisation takes about 0.7 ms. Below, waking the second core costs
-// more than it saves: on a 484-unknown grid (60 microseconds serially) a shared factorisation
-// took 1 ms.
-inline constexpr int kSplitFromUnknowns = 4000;
+// more than it saves, and on this virtual machine it now and then takes milliseconds: on a
+// 484-unknown grid (60 microseconds serially) a shared factorisation took 1 ms, and on the
+// 4,900-unknown grid one solve in six took 8 ms instead of 0.8. Networks this large also share
+// their per-link work, which keeps the second core awake.
+inline constexpr int kSplitFromUnknowns = 20000;
 inline constexpr double kSplitFromWork = 50000.0;
 
 // Supernodal when CHOLMOD's analysis finds at least `supernodal_flops_per_entry` flops per
