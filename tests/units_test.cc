@@ -1,14 +1,14 @@
 // Unit conversions at the input boundary. Exact factors are those of NIST Special Publication
 // 811 (2008), appendix B: 1 ft = 0.3048 m and 1 in = 0.0254 m exactly (the 1959 international
 // yard), 1 US gallon = 231 in^3 = 3.785411784 L exactly, 1 psi = 6894.757 Pa (lbf/in^2).
-#include "model/units.h"
-
 #include <doctest/doctest.h>
 
 #include <cstdlib>
 #include <cstring>
 #include <random>
 #include <string>
+
+#include "model/units.h"
 
 using namespace gradeline;
 
@@ -46,7 +46,8 @@ TEST_CASE("every required flow unit converts (US gallon = 3.785411784 L exactly)
   CHECK(si("1m3/s", Dimension::kFlow) == doctest::Approx(1.0).epsilon(kExact));
   CHECK(si("120m3/h", Dimension::kFlow) == doctest::Approx(120.0 / 3600.0).epsilon(kExact));
   CHECK(si("86.4ML/d", Dimension::kFlow) == doctest::Approx(1.0).epsilon(kExact));
-  CHECK(si("35gpm", Dimension::kFlow) == doctest::Approx(35 * 3.785411784e-3 / 60).epsilon(kExact));
+  CHECK(si("35gpm", Dimension::kFlow) ==
+        doctest::Approx(35 * 3.785411784e-3 / 60).epsilon(kExact));
   CHECK(si("2MGD", Dimension::kFlow) ==
         doctest::Approx(2e6 * 3.785411784e-3 / 86400).epsilon(kExact));
   CHECK(si("1cfs", Dimension::kFlow) == doctest::Approx(0.028316846592).epsilon(kExact));
@@ -90,8 +91,7 @@ TEST_CASE("non-finite and malformed numbers are refused") {
   }
   CHECK(parse_quantity("1e999", Dimension::kLength, UnitSystem::kSI).error ==
         "'1e999' is not a finite number");
-  CHECK(parse_quantity("abc", Dimension::kLength, UnitSystem::kSI).error ==
-        "'abc' is not a number");
+  CHECK(parse_quantity("abc", Dimension::kLength, UnitSystem::kSI).error == "'abc' is not a number");
 }
 
 TEST_CASE("an exponent needs digits, so 5e is a number with an unknown unit") {

@@ -78,9 +78,10 @@ class IdIndex {
     }
     return s;
   }
-  // Adds every staged element to an empty table on every core, or returns false at a
-  // duplicate ID (the table is then to be cleared); `id_of` as for insert, called only to
-  // compare IDs too long to be kept in a slot. The IDs are dealt by home slot into parts of
+  // Adds every staged element, or returns false at a duplicate ID (the table is then to be
+  // cleared); `id_of` as for insert, called only to compare IDs too long to be kept in a
+  // slot. Into an empty table and from 65,536 elements, on every core: the IDs are dealt by
+  // home slot into parts of
   // the table small enough for a core's cache, each part filled in index order by one core;
   // an element whose probe would leave its part is placed after, in index order. Lookups
   // then find every element as if it had been inserted one by one. (src/model/id_index.cc)

@@ -17,7 +17,7 @@ constexpr double kPound_kg = 0.45359237;
 struct UnitEntry {
   const char* name;  // lower case
   Dimension dimension;
-  double factor;  // SI = value * factor + offset
+  double factor;     // SI = value * factor + offset
   double offset;
   bool is_head;
 };
@@ -45,8 +45,8 @@ constexpr UnitEntry kUnits[] = {
     {"mld", Dimension::kFlow, 1e3 / 86400.0, 0.0, false},
     {"gpm", Dimension::kFlow, kUsGallon_m3 / 60.0, 0.0, false},
     {"mgd", Dimension::kFlow, 1e6 * kUsGallon_m3 / 86400.0, 0.0, false},
-    {"cfs", Dimension::kFlow, kFoot_m* kFoot_m* kFoot_m, 0.0, false},
-    {"ft3/s", Dimension::kFlow, kFoot_m* kFoot_m* kFoot_m, 0.0, false},
+    {"cfs", Dimension::kFlow, kFoot_m * kFoot_m * kFoot_m, 0.0, false},
+    {"ft3/s", Dimension::kFlow, kFoot_m * kFoot_m * kFoot_m, 0.0, false},
     // Pressures.
     {"pa", Dimension::kPressure, 1.0, 0.0, false},
     {"kpa", Dimension::kPressure, 1e3, 0.0, false},
@@ -63,7 +63,7 @@ constexpr UnitEntry kUnits[] = {
     {"m2/s", Dimension::kViscosity, 1.0, 0.0, false},
     {"mm2/s", Dimension::kViscosity, 1e-6, 0.0, false},
     {"cst", Dimension::kViscosity, 1e-6, 0.0, false},
-    {"ft2/s", Dimension::kViscosity, kFoot_m* kFoot_m, 0.0, false},
+    {"ft2/s", Dimension::kViscosity, kFoot_m * kFoot_m, 0.0, false},
     // Densities.
     {"kg/m3", Dimension::kDensity, 1.0, 0.0, false},
     {"g/cm3", Dimension::kDensity, 1000.0, 0.0, false},
@@ -88,25 +88,16 @@ Dimension unit_family(Dimension d) {
 const char* default_unit(Dimension d, UnitSystem s) {
   const bool si = s == UnitSystem::kSI;
   switch (d) {
-    case Dimension::kLength:
-      return si ? "m" : "ft";
+    case Dimension::kLength: return si ? "m" : "ft";
     case Dimension::kDiameter:
-    case Dimension::kRoughness:
-      return si ? "mm" : "in";
-    case Dimension::kFlow:
-      return si ? "l/s" : "gpm";
-    case Dimension::kPressure:
-      return si ? "kpa" : "psi";
-    case Dimension::kTemperature:
-      return si ? "c" : "f";
-    case Dimension::kViscosity:
-      return si ? "m2/s" : "ft2/s";
-    case Dimension::kDensity:
-      return si ? "kg/m3" : "lb/ft3";
-    case Dimension::kVelocity:
-      return si ? "m/s" : "ft/s";
-    case Dimension::kDimensionless:
-      return "";
+    case Dimension::kRoughness: return si ? "mm" : "in";
+    case Dimension::kFlow: return si ? "l/s" : "gpm";
+    case Dimension::kPressure: return si ? "kpa" : "psi";
+    case Dimension::kTemperature: return si ? "c" : "f";
+    case Dimension::kViscosity: return si ? "m2/s" : "ft2/s";
+    case Dimension::kDensity: return si ? "kg/m3" : "lb/ft3";
+    case Dimension::kVelocity: return si ? "m/s" : "ft/s";
+    case Dimension::kDimensionless: return "";
   }
   return "";
 }
@@ -207,26 +198,16 @@ std::string join_names(Dimension d) {
 
 const char* dimension_name(Dimension d) {
   switch (d) {
-    case Dimension::kLength:
-      return "a length";
-    case Dimension::kDiameter:
-      return "a diameter";
-    case Dimension::kRoughness:
-      return "a roughness";
-    case Dimension::kFlow:
-      return "a flow";
-    case Dimension::kPressure:
-      return "a pressure";
-    case Dimension::kTemperature:
-      return "a temperature";
-    case Dimension::kViscosity:
-      return "a kinematic viscosity";
-    case Dimension::kDensity:
-      return "a density";
-    case Dimension::kVelocity:
-      return "a velocity";
-    case Dimension::kDimensionless:
-      return "a plain number";
+    case Dimension::kLength: return "a length";
+    case Dimension::kDiameter: return "a diameter";
+    case Dimension::kRoughness: return "a roughness";
+    case Dimension::kFlow: return "a flow";
+    case Dimension::kPressure: return "a pressure";
+    case Dimension::kTemperature: return "a temperature";
+    case Dimension::kViscosity: return "a kinematic viscosity";
+    case Dimension::kDensity: return "a density";
+    case Dimension::kVelocity: return "a velocity";
+    case Dimension::kDimensionless: return "a plain number";
   }
   return "a value";
 }
@@ -240,9 +221,9 @@ std::vector<std::string> unit_names(Dimension d) {
   std::vector<std::string> out;
   const Dimension family = unit_family(d);
   for (const UnitEntry& u : kUnits) {
-    if (u.dimension == family ||
-        (d == Dimension::kPressure && u.dimension == Dimension::kLength &&
-         (std::string_view(u.name) == "m" || std::string_view(u.name) == "ft"))) {
+    if (u.dimension == family || (d == Dimension::kPressure && u.dimension == Dimension::kLength &&
+                                  (std::string_view(u.name) == "m" ||
+                                   std::string_view(u.name) == "ft"))) {
       out.emplace_back(u.name);
     }
   }
