@@ -1,11 +1,11 @@
 #include "solver/sparse_cholesky.h"
 
-#include "solver/cholmod_ldlt.h"
-
 #include <Eigen/CholmodSupport>
 #include <Eigen/SparseCholesky>
 #include <string_view>
 #include <type_traits>
+
+#include "solver/cholmod_ldlt.h"
 
 namespace gradeline {
 namespace {
