@@ -105,7 +105,6 @@ TEST_CASE("decimals read to the double nearest them, as glibc's strtod reads the
   // strtod (glibc) rounds correctly; the reader's quick path (m / 10^k, both exact) must give
   // the same double, bit for bit, and so must its fall-back for longer numbers and exponents.
   std::mt19937_64 rng(42);
-  int checked = 0;
   for (int trial = 0; trial < 200000; ++trial) {
     std::string text = rng() % 4 == 0 ? "-" : "";
     const int digits = 1 + static_cast<int>(rng() % 18);
@@ -121,9 +120,7 @@ TEST_CASE("decimals read to the double nearest them, as glibc's strtod reads the
     const double reference = std::strtod(text.c_str(), nullptr);
     CAPTURE(text);
     REQUIRE(std::memcmp(&ours, &reference, sizeof ours) == 0);
-    ++checked;
   }
-  CHECK(checked == 200000);
   // Values at the quick path's limits: 2^53 - 1 and 2^53 digits, 22 places, negative zero.
   for (const char* text : {"9007199254740991", "9007199254740993", "0.0000000000000000000001",
                            "1.2345678901234567", "-0", "-0.0", "5.", "0.1", "0.3", "100.0000"}) {

@@ -47,17 +47,12 @@ class IdIndex {
   template <typename IdOf>
   std::pair<std::size_t, bool> insert(std::string_view id, std::size_t index, IdOf id_of) {
     if ((count_ + 1) * 4 > slots_.size() * 3) rehash(slots_.empty() ? 16 : slots_.size() * 2);
-    const std::uint32_t tag = tag_of(id);
-    std::size_t s = tag & mask();
+    const Staged e = stage(id, index);
+    std::size_t s = e.tag & mask();
     for (; slots_[s].index != kEmpty; s = (s + 1) & mask()) {
-      if (slots_[s].tag == tag && same(slots_[s], id, id_of)) return {slots_[s].index, false};
+      if (slots_[s].tag == e.tag && same(slots_[s], id, id_of)) return {slots_[s].index, false};
     }
-    Slot& slot = slots_[s];
-    slot = {tag, static_cast<std::uint32_t>(index), kLongId, {}};
-    if (id.size() <= kInlineId) {
-      slot.length = static_cast<std::uint8_t>(id.size());
-      std::memcpy(slot.chars, id.data(), id.size());
-    }
+    place(&slots_[s], e);
     ++count_;
     return {index, true};
   }
@@ -128,6 +123,13 @@ class IdIndex {
     std::uint8_t length = kLongId;  // of the ID kept in `chars`, or kLongId
     char chars[kInlineId] = {};
   };
+
+  static void place(Slot* slot, const Staged& e) {
+    slot->tag = e.tag;
+    slot->index = e.index;
+    slot->length = e.length;
+    std::memcpy(slot->chars, e.chars, sizeof slot->chars);
+  }
 
   template <typename IdOf>
   static bool same(const Slot& slot, std::string_view id, IdOf& id_of) {

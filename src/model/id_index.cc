@@ -18,10 +18,9 @@ constexpr std::size_t kPartSlots = 4096;
 bool IdIndex::insert_all(const std::vector<Staged>& staged,
                          const std::function<std::string_view(std::size_t)>& id_of) {
   const std::size_t n = staged.size();
-  auto id_at = [&](std::size_t i) { return id_of(i); };
   if (count_ != 0 || n < kBulkFrom) {
     for (const Staged& e : staged) {
-      if (!insert(id_of(e.index), e.index, id_at).second) return false;
+      if (!insert(id_of(e.index), e.index, id_of).second) return false;
     }
     return true;
   }
@@ -37,12 +36,6 @@ bool IdIndex::insert_all(const std::vector<Staged>& staged,
       return e.length == slot.length && std::memcmp(slot.chars, e.chars, e.length) == 0;
     }
     return e.length == kLongId && id_of(slot.index) == id_of(e.index);
-  };
-  auto place = [](Slot& slot, const Staged& e) {
-    slot.tag = e.tag;
-    slot.index = e.index;
-    slot.length = e.length;
-    std::memcpy(slot.chars, e.chars, sizeof slot.chars);
   };
   // The elements in order of their parts, and in index order within each (a stable counting
   // sort, each core counting and dealing a contiguous share).
@@ -90,7 +83,7 @@ bool IdIndex::insert_all(const std::vector<Staged>& staged,
           }
           Slot& slot = slots_[s];
           if (slot.index == kEmpty) {
-            place(slot, e);
+            place(&slot, e);
             break;
           }
           if (slot.tag == e.tag && same(slot, e)) {
@@ -111,7 +104,7 @@ bool IdIndex::insert_all(const std::vector<Staged>& staged,
     for (; slots_[s].index != kEmpty; s = (s + 1) & mask()) {
       if (slots_[s].tag == e.tag && same(slots_[s], e)) return false;
     }
-    place(slots_[s], e);
+    place(&slots_[s], e);
   }
   count_ = n;
   return true;
